@@ -1,0 +1,7 @@
+// plystrain command line front end.
+#include <iostream>
+
+int main() {
+  std::cout << "plystrain " << PLYSTRAIN_VERSION << "\n";
+  return 0;
+}
