@@ -1,0 +1,38 @@
+#include "plystrain/solver/text_distance.hpp"
+
+#include <algorithm>
+#include <numeric>
+
+namespace plystrain {
+
+int edit_distance(std::string_view a, std::string_view b) {
+  std::vector<int> previous(b.size() + 1);
+  std::vector<int> current(b.size() + 1);
+  std::iota(previous.begin(), previous.end(), 0);
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    current[0] = static_cast<int>(i);
+    for (std::size_t j = 1; j <= b.size(); ++j) {
+      const int substitution = previous[j - 1] + (a[i - 1] == b[j - 1] ? 0 : 1);
+      current[j] = std::min({previous[j] + 1, current[j - 1] + 1, substitution});
+    }
+    std::swap(previous, current);
+  }
+  return previous[b.size()];
+}
+
+std::string closest_match(std::string_view word, const std::vector<std::string>& candidates) {
+  std::string best;
+  int best_distance = 0;
+  for (const std::string& candidate : candidates) {
+    const int distance = edit_distance(word, candidate);
+    if (best.empty() || distance < best_distance) {
+      best = candidate;
+      best_distance = distance;
+    }
+  }
+  const int longer = static_cast<int>(std::max(word.size(), best.size()));
+  const int allowed = std::clamp(longer / 3, 1, 3);
+  return (!best.empty() && best_distance <= allowed) ? best : std::string{};
+}
+
+}  // namespace plystrain
