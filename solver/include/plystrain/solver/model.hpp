@@ -1,0 +1,196 @@
+// The discretised model: a mesh, a law per region, a kinematic kind,
+// constraints and loads, as one NonlinearSystem in the reduced unknowns q.
+//
+// Unknowns. The physical variables are the nodal displacements u (two per
+// node: x or r, then z) and, for generalized plane strain, the out-of-plane
+// strain e3 = F33 - 1. Every constraint is eliminated:
+//     [u; e3] = T q + g(lambda),
+// with q the free displacements, the free translations of rigid faces and a
+// free e3. The tangent is T^T K T; its sparsity pattern is built once.
+//
+// Loads and prescribed values scale with the load factor lambda through
+// ScaledValue (value * lambda by default, or any function of lambda).
+#pragma once
+
+#include "plystrain/materials/law.hpp"
+#include "plystrain/mesh/mesh.hpp"
+#include "plystrain/solver/nonlinear_system.hpp"
+
+#include <Eigen/Core>
+
+#include <array>
+#include <functional>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plystrain::solver {
+
+enum class Kinematics {
+  plane_strain,              // F33 = 1, per unit depth
+  generalized_plane_strain,  // F33 = 1 + e3, e3 one global unknown or prescribed, per unit depth
+  axisymmetric,              // x = r >= 0, F33 = 1 + u_r / R, full 2 pi R ring
+};
+
+[[nodiscard]] const char* kinematics_name(Kinematics kinematics);
+
+// A scalar that depends on the load factor: `function(lambda)` when set,
+// otherwise `value * lambda`.
+struct ScaledValue {
+  double value = 0.0;
+  std::function<double(double)> function;
+
+  [[nodiscard]] double at(double load_factor) const {
+    return function ? function(load_factor) : value * load_factor;
+  }
+};
+
+enum class LockingCure {
+  automatic,  // mixed displacement-pressure when kappa/mu exceeds the threshold
+  on,
+  off,
+};
+
+struct RegionDefinition {
+  materials::LawParameters law;
+  LockingCure cure = LockingCure::automatic;
+};
+
+// u_component(node) = value(lambda) for every node of the set. component 0 is
+// x (or r), 1 is z. A symmetry condition is a PrescribedDisplacement with
+// value 0 (see symmetry()).
+struct PrescribedDisplacement {
+  std::string node_set;
+  int component = 0;
+  ScaledValue value;
+};
+
+[[nodiscard]] PrescribedDisplacement symmetry(std::string node_set, int component);
+
+// The nodes of the set move as one rigid body: rotated exactly by
+// angle(lambda) (radians, counter-clockwise) about reference_point, plus a
+// translation (two unknowns unless fixed):
+//     u_i = t + (R(angle) - I)(X_i - reference_point).
+// The rotation is imposed exactly at every angle (no linearisation).
+struct RigidFace {
+  std::string node_set;
+  Eigen::Vector2d reference_point = Eigen::Vector2d::Zero();
+  ScaledValue angle;
+  std::array<std::optional<ScaledValue>, 2> fixed_translation;  // empty = free
+};
+
+// sum_i coefficient_i * u(node_i, component_i) = value(lambda).
+struct LinearConstraintTerm {
+  int node = 0;
+  int component = 0;
+  double coefficient = 1.0;
+};
+struct LinearConstraint {
+  std::vector<LinearConstraintTerm> terms;
+  ScaledValue value;
+};
+
+// Pressure on the deformed face of an edge set (follower load), positive
+// pushing into the material. Its load stiffness is not symmetric; the model
+// then reports tangent_is_symmetric() == false.
+struct FollowerPressure {
+  std::string edge_set;
+  ScaledValue pressure;
+};
+
+// A dead load: nominal traction (force per reference length, per unit depth;
+// per reference area for axisymmetric models) on an edge set, a function of
+// the reference position and the load factor.
+struct DeadTraction {
+  std::string edge_set;
+  std::function<Eigen::Vector2d(const Eigen::Vector2d& reference_position, double load_factor)>
+      traction;
+};
+
+// Generalized plane strain only: with no prescribed strain, e3 is a free
+// unknown fixed by the out-of-plane resultant (the integral of P33 over the
+// section, per unit depth) equalling `resultant` (0 = free contraction).
+struct OutOfPlane {
+  std::optional<ScaledValue> prescribed_strain;  // e3 = F33 - 1 as a function of lambda
+  ScaledValue resultant;
+};
+
+struct ModelDefinition {
+  Kinematics kinematics = Kinematics::plane_strain;
+  std::vector<RegionDefinition> regions;  // index = mesh region
+  double locking_threshold = 50.0;        // kappa/mu above which `automatic` turns the cure on
+  OutOfPlane out_of_plane;
+  std::vector<PrescribedDisplacement> displacements;
+  std::vector<RigidFace> rigid_faces;
+  std::vector<LinearConstraint> linear_constraints;
+  std::vector<FollowerPressure> pressures;
+  std::vector<DeadTraction> tractions;
+  int threads = 0;  // OpenMP threads for the element loop; 0 = the OpenMP default
+};
+
+// How the model treats one region (after the automatic choice).
+struct RegionTreatment {
+  bool mixed = false;  // displacement-pressure with condensed element pressure
+  double bulk_to_shear = 0.0;
+};
+
+// Per-cell record used by post-processing.
+struct CellFormulation {
+  bool mixed = false;
+  int pressure_functions = 0;  // 0 (plain), 1 (P0), 3 (P1)
+};
+
+class ModelImpl;
+
+class Model final : public NonlinearSystem {
+ public:
+  // Throws std::invalid_argument when the definition does not fit the mesh
+  // (unknown set names, regions without a law, a dof constrained twice,
+  // negative r in an axisymmetric mesh, ...), naming what is wrong.
+  Model(mesh::Mesh mesh, ModelDefinition definition);
+  ~Model() override;
+  Model(Model&&) noexcept;
+  Model& operator=(Model&&) noexcept;
+  Model(const Model&) = delete;
+  Model& operator=(const Model&) = delete;
+
+  [[nodiscard]] int size() const override;
+  Evaluation evaluate(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& residual,
+                      SparseMatrix* tangent) override;
+
+  // False when a follower pressure is present: the linear solver must then
+  // use its LU fallback.
+  [[nodiscard]] bool tangent_is_symmetric() const;
+
+  [[nodiscard]] const mesh::Mesh& mesh() const;
+  [[nodiscard]] const ModelDefinition& definition() const;
+  [[nodiscard]] const std::vector<RegionTreatment>& region_treatments() const;
+  [[nodiscard]] CellFormulation cell_formulation(int cell) const;
+
+  // Physical variables from q: nodal displacements as (node_count x 2), and
+  // F33 - 1 for generalized plane strain (0 otherwise).
+  [[nodiscard]] Eigen::MatrixX2d displacements(const Eigen::VectorXd& q, double load_factor) const;
+  [[nodiscard]] double out_of_plane_strain(const Eigen::VectorXd& q, double load_factor) const;
+
+  // Internal minus external nodal forces (node_count x 2) at (q, lambda): the
+  // reactions at constrained nodes, ~0 at free ones. Axisymmetric forces are
+  // totals over the ring (2 pi R included).
+  [[nodiscard]] Eigen::MatrixX2d nodal_forces(const Eigen::VectorXd& q, double load_factor) const;
+
+  // The integral of P33 over the section (generalized plane strain: the
+  // out-of-plane resultant per unit depth).
+  [[nodiscard]] double out_of_plane_resultant(const Eigen::VectorXd& q, double load_factor) const;
+
+  // Warnings found while building (e.g. 3-node triangles in a region that
+  // needs the locking cure, which they cannot have).
+  [[nodiscard]] const std::vector<std::string>& warnings() const;
+
+  // For post-processing and tests: the implementation.
+  [[nodiscard]] const ModelImpl& impl() const { return *impl_; }
+
+ private:
+  std::unique_ptr<ModelImpl> impl_;
+};
+
+}  // namespace plystrain::solver
