@@ -37,10 +37,16 @@ using Matrix9d = Eigen::Matrix<double, 9, 9>;
 
 // Tangent layout: dP/dF as a 9x9 matrix with row index 3*i + j for P(i, j)
 // and column index 3*k + l for F(k, l).
+//
+// admissible is false where the law is not defined: det F <= 0, or a Gent
+// material stretched to or beyond its locking limit. Energy, stress and
+// tangent are then all zero (never NaN) and must not be used: the caller
+// treats the state as a failed trial (cut the step back).
 struct PointResponse {
   double energy = 0.0;
   Eigen::Matrix3d first_piola = Eigen::Matrix3d::Zero();
   Matrix9d tangent = Matrix9d::Zero();
+  bool admissible = true;
 };
 
 // The volumetric function and its first two derivatives at J.
@@ -48,6 +54,7 @@ struct VolumetricResponse {
   double energy = 0.0;        // U(J)
   double pressure = 0.0;      // U'(J)
   double stiffness = 0.0;     // U''(J)
+  bool admissible = true;     // false for J <= 0 (all values then zero)
 };
 
 // Full response W(F) = W_iso(Fbar) + U(J). Requires det F > 0.
