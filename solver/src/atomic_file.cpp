@@ -11,9 +11,10 @@ namespace plystrain {
 namespace {
 
 std::filesystem::path temporary_beside(const std::filesystem::path& target) {
-  // The process id keeps two runs writing the same directory from clashing.
-  return target.parent_path() /
-         ("." + target.filename().string() + ".partial-" + std::to_string(::getpid()));
+  // The process id keeps two runs writing the same directory from clashing;
+  // the extension is kept because some writers (Gmsh) choose the format by it.
+  return target.parent_path() / ("." + target.stem().string() + ".partial-" +
+                                 std::to_string(::getpid()) + target.extension().string());
 }
 
 void rename_into_place(const std::filesystem::path& temporary,

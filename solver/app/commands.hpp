@@ -1,0 +1,30 @@
+// The commands of the plystrain front end. Each registers its options on the
+// CLI11 app and returns the exit code when run.
+#pragma once
+
+#include <CLI/CLI.hpp>
+
+#include <functional>
+#include <iosfwd>
+
+namespace plystrain::cli {
+
+// Exit codes (documented in the README).
+inline constexpr int exit_done = 0;
+inline constexpr int exit_internal_error = 1;
+inline constexpr int exit_bad_input = 2;
+inline constexpr int exit_load_not_reached = 3;
+
+// A subcommand and what to run when it is chosen. The options are bound to
+// storage that the action owns (shared with the parser).
+struct Command {
+  CLI::App* subcommand = nullptr;
+  std::function<int()> action;
+};
+
+Command add_check_command(CLI::App& app);
+Command add_materials_command(CLI::App& app);
+Command add_reference_command(CLI::App& app);
+Command add_mesh_command(CLI::App& app);
+
+}  // namespace plystrain::cli
