@@ -1,0 +1,58 @@
+// The reduced tangent's sparsity pattern, built once per model, and each
+// block's (cell's or loaded edge's) scatter plan into the value array, so an
+// evaluation only zeroes the values and adds block matrices into known slots.
+#pragma once
+
+#include "plystrain/solver/constraints.hpp"
+#include "plystrain/solver/nonlinear_system.hpp"
+
+#include <span>
+#include <vector>
+
+namespace plystrain::solver {
+
+class AssemblyPattern {
+ public:
+  AssemblyPattern() = default;
+
+  // blocks[b] lists the variables (indices into z) of block b in its local
+  // order. The pattern is that of T^T K T over all blocks.
+  AssemblyPattern(const ConstraintSet& constraints, const std::vector<std::vector<int>>& blocks);
+
+  // The pattern with zero values (compressed, both triangles).
+  [[nodiscard]] const SparseMatrix& pattern() const { return pattern_; }
+
+  // Makes `matrix` carry this pattern (copied only when it differs) and
+  // zeroes its values.
+  void prepare(SparseMatrix& matrix) const;
+
+  // values += T_b^T K_b T_b for block b; K_b is column-major, n x n, n the
+  // block's variable count.
+  void scatter_matrix(int block, const double* block_matrix, int n, double* values) const;
+
+  // r_z += r_b (over the variables; reduction by T^T happens once at the end).
+  void scatter_vector(int block, const double* block_vector, int n, Eigen::VectorXd& variables) const;
+
+  [[nodiscard]] int block_count() const { return static_cast<int>(blocks_.size()); }
+  [[nodiscard]] std::span<const int> block_variables(int block) const;
+  [[nodiscard]] std::size_t slot_count() const;  // memory of the plans, in entries
+
+ private:
+  struct GeneralEntry {
+    int local = 0;  // a + n b (column-major in the block matrix)
+    int slot = 0;
+    double coefficient = 0.0;
+  };
+  struct Plan {
+    bool selection = true;
+    int begin = 0;  // into slots_ (selection) or general_ (otherwise)
+    int end = 0;
+  };
+  std::vector<std::vector<int>> blocks_;
+  std::vector<Plan> plans_;
+  std::vector<int> slots_;  // n*n per selection block, -1 where a variable is eliminated
+  std::vector<GeneralEntry> general_;
+  SparseMatrix pattern_;
+};
+
+}  // namespace plystrain::solver

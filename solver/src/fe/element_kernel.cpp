@@ -1,0 +1,415 @@
+// Total Lagrangian element kernels. One path for the three kinematic kinds:
+// the in-plane gradient plus F33 form a full 3x3 F that goes to the material
+// law; only the five components F11, F12, F21, F22, F33 vary, so the kernel
+// works with their 5-vector and the 5 x ndof matrix B = dF/du (F is linear in
+// the local unknowns for every kind, so B does not depend on u).
+//
+// Mixed cells (Simo, Taylor & Pister, CMAME 51, 177, 1985, three-field
+// u-p-theta with theta and p in the same discontinuous space M, condensed per
+// cell):
+//   theta = M^T H^-1 g,  g = int M J dV,  H = int M M^T dV
+//   p     = M^T H^-1 int M U'(theta) dV
+//   r     = int B^T (P_iso + p cof F) dV
+//   K     = int B^T (A_iso + p dcof/dF) B dV + G^T H^-1 K_theta H^-1 G,
+//   G = int M (cof F : B) dV,  K_theta = int M U''(theta) M^T dV.
+// This is the exact Hessian of the condensed energy int W_iso + U(theta) dV,
+// so it is symmetric. The pressure space never reaches beyond a cell, so it is
+// discontinuous across cells and across layers.
+#include "plystrain/solver/elements.hpp"
+#include "plystrain/solver/quadrature.hpp"
+
+#include <Eigen/LU>
+
+#include <array>
+#include <cmath>
+#include <numbers>
+
+namespace plystrain::solver {
+namespace {
+
+using Vector5 = Eigen::Matrix<double, 5, 1>;
+using Matrix5 = Eigen::Matrix<double, 5, 5>;
+using BMatrix = Eigen::Matrix<double, 5, Eigen::Dynamic, 0, 5, max_cell_dofs>;
+using BTMatrix = Eigen::Matrix<double, Eigen::Dynamic, 5, 0, max_cell_dofs, 5>;
+
+// Positions of F11, F12, F21, F22, F33 in the 9-vector (row 3 i + j).
+constexpr std::array<int, 5> component = {0, 1, 3, 4, 8};
+
+struct PointKinematics {
+  BMatrix B;
+  Eigen::Matrix3d F;
+  ShapeValues N;
+  Eigen::Vector2d X;
+  double area_weight = 0.0;
+  double volume_weight = 0.0;
+};
+
+// Returns false when the reference mapping is degenerate or inverted.
+bool point_kinematics(const CellSetting& setting, const CellCoordinates& X, const CellVector& dofs,
+                      const QuadraturePoint& qp, PointKinematics& out) {
+  const int n = mesh::node_count(setting.type);
+  ShapeGradients dN_dxi;
+  shape_functions(setting.type, qp.xi, out.N, dN_dxi);
+  Eigen::Matrix2d jac;
+  jac.noalias() = X.transpose() * dN_dxi;  // jac(i, j) = dX_i / dxi_j
+  const double det = jac.determinant();
+  if (!(det > 0.0)) {
+    return false;
+  }
+  ShapeGradients dN;
+  dN.resize(n, 2);
+  dN.noalias() = dN_dxi * jac.inverse();
+  out.X.noalias() = X.transpose() * out.N;
+  out.area_weight = qp.weight * det;
+  const bool axisymmetric = setting.kinematics == Kinematics::axisymmetric;
+  const double R = out.X.x();
+  out.volume_weight = axisymmetric ? out.area_weight * 2.0 * std::numbers::pi * R : out.area_weight;
+
+  Eigen::Matrix2d H = Eigen::Matrix2d::Zero();
+  double ur = 0.0;
+  for (int a = 0; a < n; ++a) {
+    const Eigen::Vector2d u(dofs(2 * a), dofs(2 * a + 1));
+    H.noalias() += u * dN.row(a);
+    ur += out.N(a) * u.x();
+  }
+  out.F.setIdentity();
+  out.F.topLeftCorner<2, 2>() += H;
+  switch (setting.kinematics) {
+    case Kinematics::plane_strain: break;
+    case Kinematics::generalized_plane_strain: out.F(2, 2) = 1.0 + dofs(2 * n); break;
+    case Kinematics::axisymmetric: out.F(2, 2) = 1.0 + ur / R; break;
+  }
+
+  const int ndof = cell_dof_count(setting);
+  out.B.setZero(5, ndof);
+  for (int a = 0; a < n; ++a) {
+    out.B(0, 2 * a) = dN(a, 0);
+    out.B(1, 2 * a) = dN(a, 1);
+    out.B(2, 2 * a + 1) = dN(a, 0);
+    out.B(3, 2 * a + 1) = dN(a, 1);
+    if (axisymmetric) {
+      out.B(4, 2 * a) = out.N(a) / R;
+    }
+  }
+  if (setting.kinematics == Kinematics::generalized_plane_strain) {
+    out.B(4, 2 * n) = 1.0;
+  }
+  return true;
+}
+
+Vector5 reduce(const Eigen::Matrix3d& P) {
+  Vector5 v;
+  v << P(0, 0), P(0, 1), P(1, 0), P(1, 1), P(2, 2);
+  return v;
+}
+
+Matrix5 reduce(const materials::Matrix9d& A) {
+  Matrix5 m;
+  for (int i = 0; i < 5; ++i) {
+    for (int j = 0; j < 5; ++j) {
+      m(i, j) = A(component[static_cast<std::size_t>(i)], component[static_cast<std::size_t>(j)]);
+    }
+  }
+  return m;
+}
+
+// cof F = J F^-T and d(cof F)_iJ / dF_kL = J (Finv_Ji Finv_Lk - Finv_Jk Finv_Li),
+// restricted to the five active components.
+void cofactor(const Eigen::Matrix3d& F, Vector5& cof, Matrix5& dcof) {
+  const double J = F.determinant();
+  const Eigen::Matrix3d Finv = F.inverse();
+  const Eigen::Matrix3d full = J * Finv.transpose();
+  cof = reduce(full);
+  for (int r = 0; r < 5; ++r) {
+    const int i = component[static_cast<std::size_t>(r)] / 3;
+    const int Jc = component[static_cast<std::size_t>(r)] % 3;
+    for (int c = 0; c < 5; ++c) {
+      const int k = component[static_cast<std::size_t>(c)] / 3;
+      const int L = component[static_cast<std::size_t>(c)] % 3;
+      dcof(r, c) = J * (Finv(Jc, i) * Finv(L, k) - Finv(Jc, k) * Finv(L, i));
+    }
+  }
+}
+
+bool finite(const CellVector& v) { return v.allFinite(); }
+
+KernelOutcome failure(KernelStatus status, int point, double jacobian) {
+  return KernelOutcome{status, point, jacobian};
+}
+
+// Plain displacement cell.
+KernelOutcome plain_cell(const CellSetting& s, const CellCoordinates& X, const CellVector& dofs,
+                         CellVector* residual, CellMatrix* tangent, std::span<PointState> states) {
+  const std::span<const QuadraturePoint> rule = cell_rule(s.type);
+  PointKinematics pk;
+  BTMatrix BtA;
+  for (int p = 0; p < static_cast<int>(rule.size()); ++p) {
+    if (!point_kinematics(s, X, dofs, rule[static_cast<std::size_t>(p)], pk)) {
+      return failure(KernelStatus::inverted, p, 0.0);
+    }
+    const double J = pk.F.determinant();
+    if (!(J > 0.0)) {
+      return failure(KernelStatus::inverted, p, J);
+    }
+    const materials::PointResponse response = materials::evaluate(*s.law, pk.F);
+    if (!response.admissible) {
+      return failure(KernelStatus::material_failure, p, J);
+    }
+    const Vector5 P = reduce(response.first_piola);
+    if (residual) {
+      residual->noalias() += pk.B.transpose() * (P * pk.volume_weight);
+    }
+    if (tangent) {
+      const Matrix5 A = reduce(response.tangent) * pk.volume_weight;
+      BtA.noalias() = pk.B.transpose() * A;
+      tangent->noalias() += BtA * pk.B;
+    }
+    if (!states.empty()) {
+      PointState& state = states[static_cast<std::size_t>(p)];
+      state.position = pk.X;
+      state.area_weight = pk.area_weight;
+      state.volume_weight = pk.volume_weight;
+      state.deformation_gradient = pk.F;
+      state.first_piola = response.first_piola;
+      state.pressure = materials::evaluate_volumetric(*s.law, J).pressure;
+    }
+  }
+  return {};
+}
+
+// Mixed cell with NP pressure functions: 1 (P0) or 3 (P1 in x, z).
+template <int NP>
+KernelOutcome mixed_cell(const CellSetting& s, const CellCoordinates& X, const CellVector& dofs,
+                         CellVector* residual, CellMatrix* tangent, std::span<PointState> states) {
+  using VectorP = Eigen::Matrix<double, NP, 1>;
+  using MatrixP = Eigen::Matrix<double, NP, NP>;
+  using GMatrix = Eigen::Matrix<double, NP, Eigen::Dynamic, (NP == 1 ? Eigen::RowMajor : Eigen::ColMajor), NP, max_cell_dofs>;
+  const std::span<const QuadraturePoint> rule = cell_rule(s.type);
+  const int points = static_cast<int>(rule.size());
+  const int ndof = cell_dof_count(s);
+
+  // Pressure basis centred and scaled on the cell's corners for conditioning.
+  const int corners = mesh::corner_count(s.type);
+  const Eigen::Vector2d centre = X.topRows(corners).colwise().mean().transpose();
+  const double size = (X.topRows(corners).colwise().maxCoeff() - X.topRows(corners).colwise().minCoeff()).norm();
+  auto basis = [&](const Eigen::Vector2d& x) {
+    VectorP m;
+    m(0) = 1.0;
+    if constexpr (NP == 3) {
+      m(1) = (x.x() - centre.x()) / size;
+      m(2) = (x.y() - centre.y()) / size;
+    }
+    return m;
+  };
+
+  std::array<PointKinematics, max_cell_points> pk;
+  std::array<VectorP, max_cell_points> M;
+  std::array<Vector5, max_cell_points> cof;
+  std::array<Matrix5, max_cell_points> dcof;
+  VectorP g = VectorP::Zero();
+  MatrixP H = MatrixP::Zero();
+  GMatrix G;
+  G.setZero(NP, ndof);
+  for (int p = 0; p < points; ++p) {
+    PointKinematics& k = pk[static_cast<std::size_t>(p)];
+    if (!point_kinematics(s, X, dofs, rule[static_cast<std::size_t>(p)], k)) {
+      return failure(KernelStatus::inverted, p, 0.0);
+    }
+    const double J = k.F.determinant();
+    if (!(J > 0.0)) {
+      return failure(KernelStatus::inverted, p, J);
+    }
+    const std::size_t ip = static_cast<std::size_t>(p);
+    M[ip] = basis(k.X);
+    cofactor(k.F, cof[ip], dcof[ip]);
+    g += M[ip] * (J * k.volume_weight);
+    H.noalias() += M[ip] * M[ip].transpose() * k.volume_weight;
+    G.noalias() += (M[ip] * k.volume_weight) * (cof[ip].transpose() * k.B);
+  }
+  const MatrixP Hinv = H.inverse();
+  const VectorP dilatation = Hinv * g;
+  VectorP pressure_load = VectorP::Zero();
+  MatrixP Ktheta = MatrixP::Zero();
+  for (int p = 0; p < points; ++p) {
+    const std::size_t ip = static_cast<std::size_t>(p);
+    const double theta = M[ip].dot(dilatation);
+    if (!(theta > 0.0)) {
+      return failure(KernelStatus::inverted, p, theta);
+    }
+    const materials::VolumetricResponse vol = materials::evaluate_volumetric(*s.law, theta);
+    if (!vol.admissible) {
+      return failure(KernelStatus::material_failure, p, theta);
+    }
+    pressure_load += M[ip] * (vol.pressure * pk[ip].volume_weight);
+    Ktheta.noalias() += M[ip] * M[ip].transpose() * (vol.stiffness * pk[ip].volume_weight);
+  }
+  const VectorP pressure_coefficients = Hinv * pressure_load;
+
+  BTMatrix BtA;
+  for (int p = 0; p < points; ++p) {
+    const std::size_t ip = static_cast<std::size_t>(p);
+    const PointKinematics& k = pk[ip];
+    const materials::PointResponse iso = materials::evaluate_isochoric(*s.law, k.F);
+    if (!iso.admissible) {
+      return failure(KernelStatus::material_failure, p, k.F.determinant());
+    }
+    const double pressure = M[ip].dot(pressure_coefficients);
+    if (residual) {
+      const Vector5 P = reduce(iso.first_piola) + pressure * cof[ip];
+      residual->noalias() += k.B.transpose() * (P * k.volume_weight);
+    }
+    if (tangent) {
+      const Matrix5 A = (reduce(iso.tangent) + pressure * dcof[ip]) * k.volume_weight;
+      BtA.noalias() = k.B.transpose() * A;
+      tangent->noalias() += BtA * k.B;
+    }
+    if (!states.empty()) {
+      PointState& state = states[ip];
+      state.position = k.X;
+      state.area_weight = k.area_weight;
+      state.volume_weight = k.volume_weight;
+      state.deformation_gradient = k.F;
+      state.first_piola = iso.first_piola + pressure * k.F.determinant() * k.F.inverse().transpose();
+      state.pressure = pressure;
+    }
+  }
+  if (tangent) {
+    const MatrixP C = Hinv * Ktheta * Hinv;
+    const GMatrix CG = C * G;
+    tangent->noalias() += G.transpose() * CG;
+  }
+  return {};
+}
+
+KernelOutcome run_cell(const CellSetting& s, const CellCoordinates& X, const CellVector& dofs,
+                       CellVector* residual, CellMatrix* tangent, std::span<PointState> states) {
+  const int ndof = cell_dof_count(s);
+  if (residual) {
+    residual->setZero(ndof);
+  }
+  if (tangent) {
+    tangent->setZero(ndof, ndof);
+  }
+  KernelOutcome outcome;
+  const int np = s.mixed ? pressure_function_count(s.type) : 0;
+  if (np == 3) {
+    outcome = mixed_cell<3>(s, X, dofs, residual, tangent, states);
+  } else if (np == 1) {
+    outcome = mixed_cell<1>(s, X, dofs, residual, tangent, states);
+  } else {
+    outcome = plain_cell(s, X, dofs, residual, tangent, states);
+  }
+  if (outcome.status == KernelStatus::ok) {
+    if ((residual && !finite(*residual)) || (tangent && !tangent->allFinite())) {
+      outcome.status = KernelStatus::non_finite;
+    }
+  }
+  return outcome;
+}
+
+}  // namespace
+
+int cell_dof_count(const CellSetting& setting) {
+  return 2 * mesh::node_count(setting.type) +
+         (setting.kinematics == Kinematics::generalized_plane_strain ? 1 : 0);
+}
+
+KernelOutcome cell_internal_forces(const CellSetting& setting, const CellCoordinates& coordinates,
+                                   const CellVector& dofs, CellVector& residual,
+                                   CellMatrix* tangent) {
+  return run_cell(setting, coordinates, dofs, &residual, tangent, {});
+}
+
+int cell_point_states(const CellSetting& setting, const CellCoordinates& coordinates,
+                      const CellVector& dofs, std::span<PointState> states,
+                      KernelOutcome& outcome) {
+  const int points = static_cast<int>(cell_rule(setting.type).size());
+  outcome = run_cell(setting, coordinates, dofs, nullptr, nullptr, states.first(static_cast<std::size_t>(points)));
+  return points;
+}
+
+int edge_dof_count(const EdgeSetting& setting) {
+  return 2 * setting.node_count +
+         (setting.kinematics == Kinematics::generalized_plane_strain ? 1 : 0);
+}
+
+// f_a = -p int N_a c n ds on the deformed edge, with n ds = (t_z, -t_x) dxi
+// for the deformed tangent t = dx/dxi (material on the left), and c = 1
+// (plane strain), lambda3 (generalized plane strain: the deformed depth), or
+// 2 pi r (axisymmetric: the deformed ring).
+void follower_pressure_forces(const EdgeSetting& s, const EdgeCoordinates& X, const EdgeVector& dofs,
+                              double pressure, EdgeVector& force, EdgeMatrix* tangent) {
+  const int n = s.node_count;
+  const int ndof = edge_dof_count(s);
+  force.setZero(ndof);
+  if (tangent) {
+    tangent->setZero(ndof, ndof);
+  }
+  Eigen::Matrix2d rot;
+  rot << 0.0, 1.0, -1.0, 0.0;
+  const double stretch3 = s.kinematics == Kinematics::generalized_plane_strain ? 1.0 + dofs(2 * n) : 1.0;
+  for (const LinePoint& lp : line_rule(n)) {
+    Eigen::Vector3d N, dN;
+    line_shape_functions(n, lp.xi, N, dN);
+    Eigen::Vector2d t = Eigen::Vector2d::Zero();
+    double r = 0.0;
+    for (int a = 0; a < n; ++a) {
+      const Eigen::Vector2d x = X.row(a).transpose() + Eigen::Vector2d(dofs(2 * a), dofs(2 * a + 1));
+      t += x * dN(a);
+      r += N(a) * x.x();
+    }
+    double factor = 1.0;
+    if (s.kinematics == Kinematics::generalized_plane_strain) {
+      factor = stretch3;
+    } else if (s.kinematics == Kinematics::axisymmetric) {
+      factor = 2.0 * std::numbers::pi * r;
+    }
+    const Eigen::Vector2d normal = rot * t;
+    for (int a = 0; a < n; ++a) {
+      force.segment<2>(2 * a) += (-pressure * lp.weight * N(a) * factor) * normal;
+    }
+    if (!tangent) {
+      continue;
+    }
+    for (int a = 0; a < n; ++a) {
+      const double scale = -pressure * lp.weight * N(a);
+      for (int b = 0; b < n; ++b) {
+        Eigen::Matrix2d block = factor * dN(b) * rot;
+        if (s.kinematics == Kinematics::axisymmetric) {
+          block.col(0) += normal * (2.0 * std::numbers::pi * N(b));
+        }
+        tangent->block<2, 2>(2 * a, 2 * b) += scale * block;
+      }
+      if (s.kinematics == Kinematics::generalized_plane_strain) {
+        tangent->block<2, 1>(2 * a, 2 * n) += scale * normal;
+      }
+    }
+  }
+}
+
+void dead_traction_forces(const EdgeSetting& s, const EdgeCoordinates& X,
+                          const std::function<Eigen::Vector2d(const Eigen::Vector2d&, double)>& traction,
+                          double load_factor, EdgeVector& force) {
+  const int n = s.node_count;
+  force.setZero(edge_dof_count(s));
+  for (const LinePoint& lp : line_rule(n)) {
+    Eigen::Vector3d N, dN;
+    line_shape_functions(n, lp.xi, N, dN);
+    Eigen::Vector2d position = Eigen::Vector2d::Zero();
+    Eigen::Vector2d tangent_vector = Eigen::Vector2d::Zero();
+    for (int a = 0; a < n; ++a) {
+      position += N(a) * X.row(a).transpose();
+      tangent_vector += dN(a) * X.row(a).transpose();
+    }
+    double weight = lp.weight * tangent_vector.norm();
+    if (s.kinematics == Kinematics::axisymmetric) {
+      weight *= 2.0 * std::numbers::pi * position.x();
+    }
+    const Eigen::Vector2d t = traction(position, load_factor);
+    for (int a = 0; a < n; ++a) {
+      force.segment<2>(2 * a) += (weight * N(a)) * t;
+    }
+  }
+}
+
+}  // namespace plystrain::solver

@@ -1,0 +1,473 @@
+#include "model_impl.hpp"
+#include "plystrain/solver/quadrature.hpp"
+
+#include <omp.h>
+
+#include <algorithm>
+#include <cmath>
+#include <sstream>
+#include <stdexcept>
+
+namespace plystrain::solver {
+namespace {
+
+// Cells are evaluated in parallel in chunks into per-cell buffers and then
+// scattered serially in cell order: the sums are formed in the same order
+// whatever the thread count, so results are bitwise identical. (Colouring
+// cannot give that here: the out-of-plane unknown of generalized plane strain
+// and multi-point constraints couple every cell.)
+constexpr int chunk_size = 256;
+
+Signal signal_of(const ScaledValue& value) {
+  return [value](double load_factor) { return value.at(load_factor); };
+}
+
+std::string cell_where(int cell, int point) {
+  std::ostringstream out;
+  out << "cell " << cell << ", point " << point;
+  return out.str();
+}
+
+const std::vector<int>& require_node_set(const mesh::Mesh& mesh, const std::string& name,
+                                         const std::string& what) {
+  const auto found = mesh.node_sets.find(name);
+  if (found == mesh.node_sets.end()) {
+    throw std::invalid_argument(what + ": the mesh has no node set '" + name + "'");
+  }
+  return found->second;
+}
+
+const std::vector<mesh::Edge>& require_edge_set(const mesh::Mesh& mesh, const std::string& name,
+                                                const std::string& what) {
+  const auto found = mesh.edge_sets.find(name);
+  if (found == mesh.edge_sets.end()) {
+    throw std::invalid_argument(what + ": the mesh has no edge set '" + name + "'");
+  }
+  return found->second;
+}
+
+int require_component(int component, const std::string& what) {
+  if (component != 0 && component != 1) {
+    throw std::invalid_argument(what + ": component must be 0 (x or r) or 1 (z), got " +
+                                std::to_string(component));
+  }
+  return component;
+}
+
+}  // namespace
+
+const char* kinematics_name(Kinematics kinematics) {
+  switch (kinematics) {
+    case Kinematics::plane_strain: return "plane strain";
+    case Kinematics::generalized_plane_strain: return "generalized plane strain";
+    case Kinematics::axisymmetric: return "axisymmetric";
+  }
+  return "unknown";
+}
+
+PrescribedDisplacement symmetry(std::string node_set, int component) {
+  PrescribedDisplacement p;
+  p.node_set = std::move(node_set);
+  p.component = component;
+  p.value = ScaledValue{0.0, {}};
+  return p;
+}
+
+ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
+    : mesh(std::move(mesh_in)),
+      definition(std::move(definition_in)),
+      variable_count(2 * mesh.node_count() +
+                     (definition.kinematics == Kinematics::generalized_plane_strain ? 1 : 0)),
+      constraints(variable_count, 2 * static_cast<int>(definition.rigid_faces.size())) {
+  if (const std::string problem = mesh::check_consistency(mesh); !problem.empty()) {
+    throw std::invalid_argument("model: inconsistent mesh: " + problem);
+  }
+  const int regions = static_cast<int>(mesh.region_names.size());
+  if (static_cast<int>(definition.regions.size()) < regions) {
+    throw std::invalid_argument("model: the mesh has " + std::to_string(regions) +
+                                " regions but only " + std::to_string(definition.regions.size()) +
+                                " have a law");
+  }
+  for (int r = 0; r < regions; ++r) {
+    const RegionDefinition& region = definition.regions[static_cast<std::size_t>(r)];
+    const std::string problem = materials::validate(region.law);
+    if (!problem.empty()) {
+      throw std::invalid_argument("model: region '" + mesh.region_names[static_cast<std::size_t>(r)] +
+                                  "': " + problem);
+    }
+    RegionTreatment t;
+    t.bulk_to_shear = materials::initial_bulk_modulus(region.law) /
+                      materials::initial_shear_modulus(region.law);
+    t.mixed = region.cure == LockingCure::on ||
+              (region.cure == LockingCure::automatic && t.bulk_to_shear > definition.locking_threshold);
+    treatments.push_back(t);
+  }
+
+  // Model size, for tolerances on coordinates.
+  double extent = 0.0;
+  for (const Eigen::Vector2d& x : mesh.nodes) {
+    extent = std::max(extent, x.cwiseAbs().maxCoeff());
+  }
+  const double axis_tolerance = 1e-10 * std::max(extent, 1e-300);
+  const bool axisymmetric = definition.kinematics == Kinematics::axisymmetric;
+  if (axisymmetric) {
+    for (int n = 0; n < mesh.node_count(); ++n) {
+      if (mesh.nodes[static_cast<std::size_t>(n)].x() < -axis_tolerance) {
+        throw std::invalid_argument("model: axisymmetric mesh has node " + std::to_string(n) +
+                                    " at r = " + std::to_string(mesh.nodes[static_cast<std::size_t>(n)].x()) +
+                                    " < 0");
+      }
+    }
+  }
+
+  bool tri3_needing_cure = false;
+  settings.reserve(mesh.cells.size());
+  for (const mesh::Cell& cell : mesh.cells) {
+    CellSetting s;
+    s.type = cell.type;
+    s.kinematics = definition.kinematics;
+    s.law = &definition.regions[static_cast<std::size_t>(cell.region)].law;
+    const bool wanted = treatments[static_cast<std::size_t>(cell.region)].mixed;
+    s.mixed = wanted && pressure_function_count(cell.type) > 0;
+    tri3_needing_cure = tri3_needing_cure || (wanted && !s.mixed);
+    settings.push_back(s);
+  }
+  if (tri3_needing_cure) {
+    warnings.push_back(
+        "3-node triangles in a nearly incompressible region have no locking cure and will lock; "
+        "use 6-node triangles or quadrilaterals there");
+  }
+
+  // Constraints: prescribed values first, then the axis, rigid faces and
+  // multi-point constraints (each eliminates a still-free unknown).
+  auto variable = [](int node, int component) { return 2 * node + component; };
+  for (const PrescribedDisplacement& p : definition.displacements) {
+    const std::string what = "prescribed displacement on '" + p.node_set + "'";
+    const int component = require_component(p.component, what);
+    for (const int node : require_node_set(mesh, p.node_set, what)) {
+      constraints.prescribe(variable(node, component), signal_of(p.value), what);
+    }
+  }
+  if (definition.kinematics == Kinematics::generalized_plane_strain) {
+    out_of_plane_variable = 2 * mesh.node_count();
+    if (definition.out_of_plane.prescribed_strain) {
+      constraints.prescribe(out_of_plane_variable, signal_of(*definition.out_of_plane.prescribed_strain),
+                            "prescribed out-of-plane strain");
+    }
+  }
+  if (axisymmetric) {
+    // Nodes on the axis cannot move radially (u_r = 0 there); the user may
+    // have said so already.
+    for (int n = 0; n < mesh.node_count(); ++n) {
+      if (std::abs(mesh.nodes[static_cast<std::size_t>(n)].x()) <= axis_tolerance &&
+          constraints.is_free(variable(n, 0))) {
+        constraints.prescribe(variable(n, 0), [](double) { return 0.0; }, "axis");
+      }
+    }
+  }
+  for (std::size_t f = 0; f < definition.rigid_faces.size(); ++f) {
+    const RigidFace& face = definition.rigid_faces[f];
+    const std::string what = "rigid face '" + face.node_set + "'";
+    const int translation = variable_count + 2 * static_cast<int>(f);
+    for (int c = 0; c < 2; ++c) {
+      if (face.fixed_translation[static_cast<std::size_t>(c)]) {
+        constraints.prescribe(translation + c, signal_of(*face.fixed_translation[static_cast<std::size_t>(c)]), what);
+      }
+    }
+    for (const int node : require_node_set(mesh, face.node_set, what)) {
+      const Eigen::Vector2d arm = mesh.nodes[static_cast<std::size_t>(node)] - face.reference_point;
+      for (int c = 0; c < 2; ++c) {
+        const ScaledValue angle = face.angle;
+        // The exact rigid rotation: (R(angle) - I) arm, for any angle.
+        Signal offset = [angle, arm, c](double load_factor) {
+          const double a = angle.at(load_factor);
+          const Eigen::Vector2d rotated(std::cos(a) * arm.x() - std::sin(a) * arm.y(),
+                                        std::sin(a) * arm.x() + std::cos(a) * arm.y());
+          return rotated(c) - arm(c);
+        };
+        constraints.follow(variable(node, c), translation + c, std::move(offset), what);
+      }
+    }
+  }
+  for (std::size_t k = 0; k < definition.linear_constraints.size(); ++k) {
+    const LinearConstraint& lc = definition.linear_constraints[k];
+    const std::string what = "linear constraint " + std::to_string(k);
+    std::vector<AffineTerm> terms;
+    for (const LinearConstraintTerm& t : lc.terms) {
+      if (t.node < 0 || t.node >= mesh.node_count()) {
+        throw std::invalid_argument(what + ": node " + std::to_string(t.node) + " does not exist");
+      }
+      terms.push_back({variable(t.node, require_component(t.component, what)), t.coefficient});
+    }
+    constraints.add_linear(terms, signal_of(lc.value), what);
+  }
+  constraints.finish();
+
+  // Blocks: cells, then follower-pressure edges (they carry load stiffness).
+  std::vector<std::vector<int>> blocks;
+  blocks.reserve(mesh.cells.size() + 16);
+  const bool gps = out_of_plane_variable >= 0;
+  for (const mesh::Cell& cell : mesh.cells) {
+    std::vector<int> vars;
+    for (int a = 0; a < cell.size(); ++a) {
+      vars.push_back(variable(cell.nodes[static_cast<std::size_t>(a)], 0));
+      vars.push_back(variable(cell.nodes[static_cast<std::size_t>(a)], 1));
+    }
+    if (gps) {
+      vars.push_back(out_of_plane_variable);
+    }
+    blocks.push_back(std::move(vars));
+  }
+  auto edge_variables = [&](const mesh::Edge& edge) {
+    std::vector<int> vars;
+    for (int a = 0; a < edge.node_count; ++a) {
+      vars.push_back(variable(edge.nodes[static_cast<std::size_t>(a)], 0));
+      vars.push_back(variable(edge.nodes[static_cast<std::size_t>(a)], 1));
+    }
+    if (gps) {
+      vars.push_back(out_of_plane_variable);
+    }
+    return vars;
+  };
+  for (std::size_t k = 0; k < definition.pressures.size(); ++k) {
+    const FollowerPressure& p = definition.pressures[k];
+    for (const mesh::Edge& edge : require_edge_set(mesh, p.edge_set, "follower pressure")) {
+      pressure_edges.push_back({edge, static_cast<int>(k)});
+      blocks.push_back(edge_variables(edge));
+    }
+  }
+  for (std::size_t k = 0; k < definition.tractions.size(); ++k) {
+    const DeadTraction& t = definition.tractions[k];
+    if (!t.traction) {
+      throw std::invalid_argument("traction on '" + t.edge_set + "': no traction function");
+    }
+    for (const mesh::Edge& edge : require_edge_set(mesh, t.edge_set, "traction")) {
+      traction_edges.push_back({edge, static_cast<int>(k)});
+      traction_variables.push_back(edge_variables(edge));
+    }
+  }
+  symmetric = pressure_edges.empty();
+  assembly = AssemblyPattern(constraints, blocks);
+}
+
+int ModelImpl::threads() const {
+  return definition.threads > 0 ? definition.threads : omp_get_max_threads();
+}
+
+void ModelImpl::gather_cell(int cell, const Eigen::VectorXd& z, CellCoordinates& X,
+                            CellVector& dofs) const {
+  const mesh::Cell& c = mesh.cells[static_cast<std::size_t>(cell)];
+  const int n = c.size();
+  X.resize(n, 2);
+  for (int a = 0; a < n; ++a) {
+    X.row(a) = mesh.nodes[static_cast<std::size_t>(c.nodes[static_cast<std::size_t>(a)])].transpose();
+  }
+  const std::span<const int> vars = assembly.block_variables(cell);
+  dofs.resize(static_cast<Eigen::Index>(vars.size()));
+  for (std::size_t i = 0; i < vars.size(); ++i) {
+    dofs(static_cast<Eigen::Index>(i)) = z(vars[i]);
+  }
+}
+
+Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_factor,
+                                      Eigen::VectorXd& forces, SparseMatrix* tangent) const {
+  forces = Eigen::VectorXd::Zero(variable_count);
+  double* values = nullptr;
+  if (tangent) {
+    assembly.prepare(*tangent);
+    values = tangent->valuePtr();
+  }
+  const int cells = mesh.cell_count();
+  std::vector<CellVector> residuals(static_cast<std::size_t>(std::min(chunk_size, cells)));
+  std::vector<CellMatrix> matrices(tangent ? residuals.size() : 0);
+  std::vector<KernelOutcome> outcomes(residuals.size());
+  const int thread_count = threads();
+  for (int start = 0; start < cells; start += chunk_size) {
+    const int end = std::min(cells, start + chunk_size);
+#pragma omp parallel for schedule(static) num_threads(thread_count)
+    for (int c = start; c < end; ++c) {
+      const std::size_t slot = static_cast<std::size_t>(c - start);
+      CellCoordinates X;
+      CellVector dofs;
+      gather_cell(c, z, X, dofs);
+      outcomes[slot] = cell_internal_forces(settings[static_cast<std::size_t>(c)], X, dofs,
+                                            residuals[slot], tangent ? &matrices[slot] : nullptr);
+    }
+    for (int c = start; c < end; ++c) {
+      const std::size_t slot = static_cast<std::size_t>(c - start);
+      const KernelOutcome& outcome = outcomes[slot];
+      if (outcome.status != KernelStatus::ok) {
+        Evaluation failed;
+        std::ostringstream detail;
+        detail << cell_where(c, outcome.point);
+        switch (outcome.status) {
+          case KernelStatus::inverted:
+            failed.status = EvaluationStatus::inverted_element;
+            detail << ": J = " << outcome.jacobian;
+            break;
+          case KernelStatus::material_failure:
+            failed.status = EvaluationStatus::material_failure;
+            detail << ": the law is not defined there (J = " << outcome.jacobian << ")";
+            break;
+          default:
+            failed.status = EvaluationStatus::non_finite;
+            detail << ": non-finite force or stiffness";
+            break;
+        }
+        failed.detail = detail.str();
+        return failed;
+      }
+      const int n = static_cast<int>(residuals[slot].size());
+      assembly.scatter_vector(c, residuals[slot].data(), n, forces);
+      if (tangent) {
+        assembly.scatter_matrix(c, matrices[slot].data(), n, values);
+      }
+    }
+  }
+
+  // Follower pressures: f_ext enters the residual with a minus sign, its
+  // stiffness likewise.
+  const bool gps = out_of_plane_variable >= 0;
+  for (std::size_t e = 0; e < pressure_edges.size(); ++e) {
+    const LoadedEdge& le = pressure_edges[e];
+    const int block = cells + static_cast<int>(e);
+    EdgeSetting s{le.edge.node_count, definition.kinematics};
+    EdgeCoordinates X(s.node_count, 2);
+    for (int a = 0; a < s.node_count; ++a) {
+      X.row(a) = mesh.nodes[static_cast<std::size_t>(le.edge.nodes[static_cast<std::size_t>(a)])].transpose();
+    }
+    const std::span<const int> vars = assembly.block_variables(block);
+    EdgeVector dofs(static_cast<Eigen::Index>(vars.size()));
+    for (std::size_t i = 0; i < vars.size(); ++i) {
+      dofs(static_cast<Eigen::Index>(i)) = z(vars[i]);
+    }
+    const double p = definition.pressures[static_cast<std::size_t>(le.load)].pressure.at(load_factor);
+    EdgeVector f;
+    EdgeMatrix k;
+    follower_pressure_forces(s, X, dofs, p, f, tangent ? &k : nullptr);
+    const int n = static_cast<int>(f.size());
+    f = -f;
+    assembly.scatter_vector(block, f.data(), n, forces);
+    if (tangent) {
+      k = -k;
+      assembly.scatter_matrix(block, k.data(), n, values);
+    }
+  }
+  for (std::size_t e = 0; e < traction_edges.size(); ++e) {
+    const LoadedEdge& le = traction_edges[e];
+    EdgeSetting s{le.edge.node_count, definition.kinematics};
+    EdgeCoordinates X(s.node_count, 2);
+    for (int a = 0; a < s.node_count; ++a) {
+      X.row(a) = mesh.nodes[static_cast<std::size_t>(le.edge.nodes[static_cast<std::size_t>(a)])].transpose();
+    }
+    EdgeVector f;
+    dead_traction_forces(s, X, definition.tractions[static_cast<std::size_t>(le.load)].traction,
+                         load_factor, f);
+    const std::vector<int>& vars = traction_variables[e];
+    for (int a = 0; a < 2 * s.node_count; ++a) {
+      forces(vars[static_cast<std::size_t>(a)]) -= f(a);
+    }
+  }
+  if (gps) {
+    forces(out_of_plane_variable) -= definition.out_of_plane.resultant.at(load_factor);
+  }
+  if (!forces.allFinite()) {
+    return Evaluation{EvaluationStatus::non_finite, "non-finite residual"};
+  }
+  return {};
+}
+
+Evaluation ModelImpl::evaluate(const Eigen::VectorXd& q, double load_factor,
+                               Eigen::VectorXd* residual, SparseMatrix* tangent) const {
+  if (q.size() != constraints.reduced_count()) {
+    throw std::invalid_argument("model: q has " + std::to_string(q.size()) + " entries, expected " +
+                                std::to_string(constraints.reduced_count()));
+  }
+  const Eigen::VectorXd z = constraints.expand(q, load_factor);
+  Eigen::VectorXd forces;
+  Evaluation result = variable_forces(z, load_factor, forces, tangent);
+  if (residual) {
+    *residual = result.ok() ? constraints.reduce(forces) : Eigen::VectorXd::Zero(q.size());
+  }
+  return result;
+}
+
+// ---------------------------------------------------------------- Model
+
+Model::Model(mesh::Mesh mesh, ModelDefinition definition)
+    : impl_(std::make_unique<ModelImpl>(std::move(mesh), std::move(definition))) {}
+Model::~Model() = default;
+Model::Model(Model&&) noexcept = default;
+Model& Model::operator=(Model&&) noexcept = default;
+
+int Model::size() const { return impl_->constraints.reduced_count(); }
+
+Evaluation Model::evaluate(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& residual,
+                           SparseMatrix* tangent) {
+  return impl_->evaluate(q, load_factor, &residual, tangent);
+}
+
+bool Model::tangent_is_symmetric() const { return impl_->symmetric; }
+const mesh::Mesh& Model::mesh() const { return impl_->mesh; }
+const ModelDefinition& Model::definition() const { return impl_->definition; }
+const std::vector<RegionTreatment>& Model::region_treatments() const { return impl_->treatments; }
+const std::vector<std::string>& Model::warnings() const { return impl_->warnings; }
+
+CellFormulation Model::cell_formulation(int cell) const {
+  const CellSetting& s = impl_->settings.at(static_cast<std::size_t>(cell));
+  return {s.mixed, s.mixed ? pressure_function_count(s.type) : 0};
+}
+
+Eigen::MatrixX2d Model::displacements(const Eigen::VectorXd& q, double load_factor) const {
+  const Eigen::VectorXd z = impl_->variables(q, load_factor);
+  Eigen::MatrixX2d u(impl_->mesh.node_count(), 2);
+  for (int n = 0; n < impl_->mesh.node_count(); ++n) {
+    u(n, 0) = z(2 * n);
+    u(n, 1) = z(2 * n + 1);
+  }
+  return u;
+}
+
+double Model::out_of_plane_strain(const Eigen::VectorXd& q, double load_factor) const {
+  if (impl_->out_of_plane_variable < 0) {
+    return 0.0;
+  }
+  return impl_->variables(q, load_factor)(impl_->out_of_plane_variable);
+}
+
+Eigen::MatrixX2d Model::nodal_forces(const Eigen::VectorXd& q, double load_factor) const {
+  const Eigen::VectorXd z = impl_->variables(q, load_factor);
+  Eigen::VectorXd forces;
+  const Evaluation result = impl_->variable_forces(z, load_factor, forces, nullptr);
+  if (!result.ok()) {
+    throw std::runtime_error("nodal forces: " + result.detail);
+  }
+  Eigen::MatrixX2d f(impl_->mesh.node_count(), 2);
+  for (int n = 0; n < impl_->mesh.node_count(); ++n) {
+    f(n, 0) = forces(2 * n);
+    f(n, 1) = forces(2 * n + 1);
+  }
+  return f;
+}
+
+double Model::out_of_plane_resultant(const Eigen::VectorXd& q, double load_factor) const {
+  const Eigen::VectorXd z = impl_->variables(q, load_factor);
+  double total = 0.0;
+  std::array<PointState, max_cell_points> states;
+  for (int c = 0; c < impl_->mesh.cell_count(); ++c) {
+    CellCoordinates X;
+    CellVector dofs;
+    impl_->gather_cell(c, z, X, dofs);
+    KernelOutcome outcome;
+    const int points = cell_point_states(impl_->settings[static_cast<std::size_t>(c)], X, dofs, states, outcome);
+    if (outcome.status != KernelStatus::ok) {
+      throw std::runtime_error("out-of-plane resultant: " + cell_where(c, outcome.point) + " failed");
+    }
+    for (int p = 0; p < points; ++p) {
+      total += states[static_cast<std::size_t>(p)].first_piola(2, 2) * states[static_cast<std::size_t>(p)].volume_weight;
+    }
+  }
+  return total;
+}
+
+}  // namespace plystrain::solver

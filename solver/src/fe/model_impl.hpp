@@ -1,0 +1,51 @@
+// The model's internals, shared by model.cpp and post.cpp.
+#pragma once
+
+#include "plystrain/solver/assembly.hpp"
+#include "plystrain/solver/constraints.hpp"
+#include "plystrain/solver/elements.hpp"
+#include "plystrain/solver/model.hpp"
+
+#include <string>
+#include <vector>
+
+namespace plystrain::solver {
+
+struct LoadedEdge {
+  mesh::Edge edge;
+  int load = 0;  // index into the definition's pressures or tractions
+};
+
+class ModelImpl {
+ public:
+  ModelImpl(mesh::Mesh mesh, ModelDefinition definition);
+
+  Evaluation evaluate(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd* residual,
+                      SparseMatrix* tangent) const;
+  // Internal minus external forces over the variables z.
+  Evaluation variable_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces,
+                             SparseMatrix* tangent) const;
+
+  [[nodiscard]] Eigen::VectorXd variables(const Eigen::VectorXd& q, double load_factor) const {
+    return constraints.expand(q, load_factor);
+  }
+  void gather_cell(int cell, const Eigen::VectorXd& z, CellCoordinates& X, CellVector& dofs) const;
+
+  [[nodiscard]] int threads() const;
+
+  mesh::Mesh mesh;
+  ModelDefinition definition;
+  std::vector<RegionTreatment> treatments;
+  std::vector<CellSetting> settings;  // per cell
+  std::vector<LoadedEdge> pressure_edges;
+  std::vector<LoadedEdge> traction_edges;
+  std::vector<std::vector<int>> traction_variables;
+  int variable_count = 0;
+  int out_of_plane_variable = -1;  // e3 (generalized plane strain)
+  ConstraintSet constraints;
+  AssemblyPattern assembly;
+  bool symmetric = true;
+  std::vector<std::string> warnings;
+};
+
+}  // namespace plystrain::solver

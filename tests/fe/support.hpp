@@ -1,0 +1,89 @@
+// Test helpers for the finite-element core: a plain Newton loop on a model
+// (sparse LDL' or LU from Eigen, full steps) and small law constructors.
+#pragma once
+
+#include "plystrain/materials/law.hpp"
+#include "plystrain/solver/model.hpp"
+
+#include <Eigen/SparseCholesky>
+#include <Eigen/SparseLU>
+
+#include <stdexcept>
+#include <string>
+
+namespace plystrain::test {
+
+inline materials::LawParameters neo_hookean(double shear_modulus, double bulk_modulus) {
+  materials::LawParameters law;
+  law.kind = materials::ModelKind::neo_hookean;
+  law.shear_modulus = shear_modulus;
+  law.bulk_modulus = bulk_modulus;
+  return law;
+}
+
+inline materials::LawParameters neo_hookean_from_young(double youngs_modulus, double poisson_ratio) {
+  const materials::ShearBulk m = materials::to_shear_bulk(youngs_modulus, poisson_ratio);
+  return neo_hookean(m.shear_modulus, m.bulk_modulus);
+}
+
+struct NewtonOutcome {
+  Eigen::VectorXd q;
+  int iterations = 0;
+  double residual_norm = 0.0;
+};
+
+// Newton from q in `steps` equal load increments up to load_factor_end.
+// Throws on failure (a test then fails with the reason).
+inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_factor_end = 1.0,
+                           double tolerance = 1e-10, int max_iterations = 30) {
+  NewtonOutcome out;
+  out.q = Eigen::VectorXd::Zero(model.size());
+  solver::SparseMatrix K;
+  Eigen::VectorXd r;
+  for (int step = 1; step <= steps; ++step) {
+    const double lambda = load_factor_end * step / steps;
+    double reference = -1.0;
+    bool converged = false;
+    for (int it = 0; it < max_iterations; ++it) {
+      const solver::Evaluation e = model.evaluate(out.q, lambda, r, &K);
+      if (!e.ok()) {
+        throw std::runtime_error(std::string("evaluation failed: ") + e.detail);
+      }
+      const double norm = r.norm();
+      if (reference < 0.0) {
+        reference = std::max(norm, 1e-300);
+      }
+      out.residual_norm = norm;
+      ++out.iterations;
+      if (norm <= tolerance * reference || norm < 1e-14) {
+        converged = it > 0 || norm < 1e-14;
+        if (converged) {
+          break;
+        }
+      }
+      Eigen::VectorXd dq;
+      if (model.tangent_is_symmetric()) {
+        Eigen::SimplicialLDLT<solver::SparseMatrix> ldlt(K);
+        if (ldlt.info() != Eigen::Success) {
+          throw std::runtime_error("factorization failed");
+        }
+        dq = ldlt.solve(r);
+      } else {
+        Eigen::SparseLU<solver::SparseMatrix> lu;
+        lu.compute(K);
+        if (lu.info() != Eigen::Success) {
+          throw std::runtime_error("LU factorization failed");
+        }
+        dq = lu.solve(r);
+      }
+      out.q -= dq;
+    }
+    if (!converged) {
+      throw std::runtime_error("Newton did not converge at load factor " + std::to_string(lambda) +
+                               ", residual " + std::to_string(out.residual_norm));
+    }
+  }
+  return out;
+}
+
+}  // namespace plystrain::test
