@@ -1,0 +1,126 @@
+// Newton-Raphson with a backtracking line search on the residual norm, for a
+// NonlinearSystem R(q, lambda) = 0. Optionally the load factor lambda is an
+// unknown too, fixed by one extra linear equation (displacement or arc-length
+// control); the bordered system is then solved by block elimination with two
+// solves per factorization.
+//
+// Nothing here throws for numerical trouble: every failure is a status in the
+// result, with the iterate reached and the history of iterations.
+#pragma once
+
+#include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/solver/nonlinear_system.hpp"
+
+#include <Eigen/Core>
+
+#include <functional>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plystrain::solver {
+
+// Convergence: with r_k = |R(q_k)| and d_k = |q_k - q_{k-1}| (Euclidean),
+// an iterate k >= 1 is converged when
+//     (r_k <= max(residual_tolerance * r_ref, residual_floor)  and
+//      d_k min(1, r_k / r_{k-1}) <= max(increment_tolerance * d_ref, increment_floor))
+//  or  r_k <= residual_floor (also at k = 0),
+// where r_ref = max(r_0, reference_residual) and d_ref = d_1 (the first
+// increment). d_k r_k / r_{k-1} estimates the next correction: near the
+// solution both the correction and the residual shrink together, and a step
+// that solved the equations exactly (a linear problem) is recognised without
+// another solve. The floors are absolute, in the units of R and q; they only
+// matter when the first residual of an increment is already tiny.
+struct NewtonOptions {
+  int max_iterations = 25;
+  double residual_tolerance = 1e-8;
+  double residual_floor = 1e-12;
+  double increment_tolerance = 1e-8;
+  double increment_floor = 1e-14;
+  // Stop as diverged when r_k exceeds this multiple of r_ref.
+  double divergence_factor = 1e8;
+
+  // Backtracking (Armijo) on |R|: accept the step factor a when
+  //     |R(q + a dq)| <= (1 - sufficient_decrease * a) |R(q)|,
+  // otherwise shrink a by the minimiser of a quadratic model of |R|^2/2,
+  // kept within [0.1 a, 0.5 a]. Trial points use residual-only evaluations.
+  // An evaluation failure at a trial point (an inverted element) counts as
+  // no decrease. When no factor passes, the smallest one tried is taken.
+  bool line_search = true;
+  int max_line_search_steps = 8;
+  double sufficient_decrease = 1e-4;
+
+  // Tangent symmetry: symmetric goes to Cholesky (with fallbacks), otherwise LU.
+  MatrixSymmetry symmetry = MatrixSymmetry::symmetric;
+};
+
+// One extra equation that makes lambda an unknown:
+//     q_coefficients . q + load_coefficient * lambda = value.
+// Displacement control of unknown i: e_i . q = target; arc-length (normal
+// plane): t_q . q + t_lambda * lambda = t . z_n + ds.
+struct PathEquation {
+  Eigen::VectorXd q_coefficients;
+  double load_coefficient = 0.0;
+  double value = 0.0;
+
+  [[nodiscard]] double residual(const Eigen::VectorXd& q, double load_factor) const {
+    return q_coefficients.dot(q) + load_coefficient * load_factor - value;
+  }
+};
+
+enum class NewtonStatus {
+  converged,
+  evaluation_failed,      // the system reported a failure at an iterate (not a line-search trial)
+  factorization_failed,   // every factorization method failed
+  solve_failed,
+  non_finite,             // a non-finite residual norm or step
+  iteration_limit,
+  diverged,
+  singular_path_equation, // the bordered system has no unique load-factor correction
+};
+
+[[nodiscard]] const char* status_name(NewtonStatus status);
+
+struct NewtonIterationRecord {
+  int iteration = 0;                 // 0-based
+  double residual_norm = 0.0;        // |R| at the start of the iteration
+  double increment_norm = 0.0;       // |a dq| taken in this iteration (0 if none)
+  double load_factor = 0.0;          // at the start of the iteration
+  double load_factor_change = 0.0;   // a dlambda (path-controlled only)
+  double line_search_factor = 1.0;   // a
+  int line_search_evaluations = 0;   // residual evaluations beyond the first
+  bool line_search_failed = false;   // no factor passed the sufficient-decrease test
+  double assemble_seconds = 0.0;     // evaluate() with the tangent, plus trial residuals
+  double factorize_seconds = 0.0;    // numeric factorization (plus analysis when redone)
+  double solve_seconds = 0.0;        // triangular solves
+  FactorizationMethod method = FactorizationMethod::none;
+  bool not_positive_definite = false;
+  std::optional<int> negative_pivots;
+};
+
+struct NewtonResult {
+  NewtonStatus status = NewtonStatus::iteration_limit;
+  std::string detail;  // what failed, where (system detail, factorization detail)
+  Eigen::VectorXd q;   // converged or last iterate
+  double load_factor = 0.0;
+  double residual_norm = 0.0;
+  std::vector<NewtonIterationRecord> iterations;
+  FactorizationReport last_factorization;
+  int active_set_updates = 0;
+
+  [[nodiscard]] bool converged() const { return status == NewtonStatus::converged; }
+};
+
+using NewtonIterationCallback = std::function<void(const NewtonIterationRecord&)>;
+
+// Solves R(q, lambda) = 0 from (q_start, load_factor). With `path` given,
+// lambda is an unknown as well (starting at load_factor). reference_residual
+// enters r_ref above (0 = use the first residual only).
+[[nodiscard]] NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
+                                        const Eigen::VectorXd& q_start, double load_factor,
+                                        const NewtonOptions& options,
+                                        const PathEquation* path = nullptr,
+                                        double reference_residual = 0.0,
+                                        const NewtonIterationCallback& on_iteration = {});
+
+}  // namespace plystrain::solver
