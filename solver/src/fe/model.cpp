@@ -145,7 +145,12 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     const std::string what = "prescribed displacement on '" + p.node_set + "'";
     const int component = require_component(p.component, what);
     for (const int node : require_node_set(mesh, p.node_set, what)) {
-      constraints.prescribe(variable(node, component), signal_of(p.value), what);
+      Signal signal = signal_of(p.value);
+      if (p.field) {
+        const Eigen::Vector2d X = mesh.nodes[static_cast<std::size_t>(node)];
+        signal = [field = p.field, X](double load_factor) { return field(X, load_factor); };
+      }
+      constraints.prescribe(variable(node, component), std::move(signal), what);
     }
   }
   if (definition.kinematics == Kinematics::generalized_plane_strain) {
@@ -185,7 +190,14 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
                                         std::sin(a) * arm.x() + std::cos(a) * arm.y());
           return rotated(c) - arm(c);
         };
-        constraints.follow(variable(node, c), translation + c, std::move(offset), what);
+        if (constraints.is_free(variable(node, c))) {
+          constraints.follow(variable(node, c), translation + c, std::move(offset), what);
+        } else {
+          // The node's component is already prescribed: that fixes the face's
+          // translation instead, z - t = offset (a second such node would be
+          // redundant and is refused by add_linear).
+          constraints.add_linear({{variable(node, c), 1.0}, {translation + c, -1.0}}, std::move(offset), what);
+        }
       }
     }
   }

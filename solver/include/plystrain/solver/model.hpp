@@ -64,6 +64,9 @@ struct PrescribedDisplacement {
   std::string node_set;
   int component = 0;
   ScaledValue value;
+  // When set, overrides value: u_component(node) = field(X_node, lambda), for
+  // displacement fields that vary along the set.
+  std::function<double(const Eigen::Vector2d& reference_position, double load_factor)> field;
 };
 
 [[nodiscard]] PrescribedDisplacement symmetry(std::string node_set, int component);
