@@ -6,6 +6,8 @@ find_package(Eigen3 3.4 REQUIRED NO_MODULE)
 find_package(OpenMP REQUIRED COMPONENTS CXX)
 find_package(CLI11 REQUIRED)
 find_package(tomlplusplus REQUIRED)
+# JSON output (results.json) and reading it back in tests.
+find_package(nlohmann_json 3.10 REQUIRED)
 find_package(VTK 9.1 REQUIRED COMPONENTS CommonCore CommonDataModel IOXML IOLegacy)
 
 find_path(CHOLMOD_INCLUDE_DIR cholmod.h PATH_SUFFIXES suitesparse REQUIRED)

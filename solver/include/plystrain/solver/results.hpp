@@ -1,0 +1,133 @@
+// What a run found, as plain values: the content of results.json,
+// summary.txt and profiles.csv (results-format.md, version 1). The writers
+// turn these into files; the analyses fill them. Lengths are in the case's
+// own unit when written; here they are in micrometres like everything else.
+#pragma once
+
+#include <Eigen/Core>
+
+#include <array>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace plystrain {
+
+enum class Verdict { intact, yields, cracks, unknown };
+
+[[nodiscard]] const char* verdict_name(Verdict verdict);  // "intact", "yields", ...
+
+// The verdict of results-format.md: cracks at or above crack onset, yields
+// above the yield strain, unknown when the material has neither limit.
+[[nodiscard]] Verdict judge(double peak_strain, const std::optional<double>& crack_onset_strain,
+                            const std::optional<double>& yield_strain);
+
+// The worse of two verdicts (cracks > yields > intact; unknown only when both are).
+[[nodiscard]] Verdict worse(Verdict a, Verdict b);
+
+struct LayerResult {
+  std::string name;
+  std::string role;
+  std::string material;
+  std::string basis;                 // basis of the material's values
+  double thickness = 0.0;            // um
+  double peak_strain = 0.0;          // averaged over report.averaging_radius
+  std::array<double, 2> peak_at{};   // reference coordinates (x or r, z), um
+  double raw_peak_strain = 0.0;      // integration-point peak (log only)
+  double far_field_strain = 0.0;
+  std::optional<double> concentration;  // null when the far field is below 1e-9
+  double min_strain = 0.0;
+  double peak_stress = 0.0;          // MPa, largest principal Cauchy stress at peak_at
+  std::optional<double> crack_onset_strain;
+  std::optional<double> yield_strain;
+  std::optional<double> crack_margin;  // 1 - peak / crack onset
+  Verdict verdict = Verdict::unknown;
+};
+
+struct LocalCheck {
+  double applied_major = 0.0;
+  double applied_minor = 0.0;
+  std::array<double, 2> applied_at{};
+  int defect_index = 0;  // from 1, as in the case
+  std::vector<LayerResult> layers;
+};
+
+struct RequiredStrain {
+  std::string layer;
+  double max = 0.0;
+  std::array<double, 2> at{};
+  double min = 0.0;
+};
+
+struct ConformResult {
+  std::string surface;
+  std::string method;
+  std::vector<RequiredStrain> required_strain;
+  double contact_fraction = 0.0;
+  double max_penetration = 0.0;  // um, reported against the stated tolerance
+};
+
+struct MeshFigures {
+  int nodes = 0;
+  int elements = 0;
+  int unknowns = 0;
+  double min_quality = 0.0;
+};
+
+struct SolverFigures {
+  int increments = 0;
+  int newton_iterations = 0;
+  int cutbacks = 0;
+  double seconds = 0.0;
+};
+
+struct RunResults {
+  int format = 1;
+  std::string tool_version;
+  std::string case_file;  // file name of the case as given
+  std::string case_hash;  // hash of the case as run
+  std::string title;
+  std::string shape;      // "strip", "disk"
+  std::string load;       // "stretch", "bend", "conform"
+  std::string lateral;    // "free", "held", a number, or "" where it does not apply
+  bool completed = false;
+  double load_reached = 0.0;
+  std::string message;    // why it stopped early; empty when completed
+  std::vector<LayerResult> layers;
+  std::vector<LocalCheck> local;
+  std::optional<ConformResult> conform;
+  MeshFigures mesh;
+  SolverFigures solver;
+  std::vector<std::string> cautions;
+};
+
+// One sample of profiles.csv: strain along a layer's mid-line.
+struct ProfileSample {
+  std::string layer;
+  double x = 0.0;  // reference x or r, um
+  double z = 0.0;  // reference z, um
+  double strain_along = 0.0;
+  double strain_across = 0.0;
+  double strain_third = 0.0;
+  double max_principal = 0.0;
+};
+
+// Nodal fields of one converged increment for the ParaView output. Values
+// per layer are kept apart: `point_layer_values` has one row per (node,
+// region) pair listed in `point_copies`, so that a node on an interface
+// carries one value per layer and nothing is smeared across the interface.
+struct FieldSnapshot {
+  double load_factor = 0.0;
+  Eigen::MatrixX2d displacement;             // per mesh node
+  // Per (node, region) copy: the writer duplicates interface nodes so that
+  // every layer's cells refer to their own copy.
+  std::vector<std::array<int, 2>> point_copies;  // {node, region}
+  Eigen::VectorXd max_principal_strain;          // per copy
+  Eigen::VectorXd min_principal_strain;
+  Eigen::Matrix<double, Eigen::Dynamic, 6> log_strain;     // xx yy zz xy yz xz per copy
+  Eigen::Matrix<double, Eigen::Dynamic, 6> cauchy_stress;  // MPa, same order
+  Eigen::VectorXd von_mises_stress;
+  Eigen::VectorXd crack_ratio;  // max_principal_strain / crack onset (0 where unknown)
+};
+
+}  // namespace plystrain
