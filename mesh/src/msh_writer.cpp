@@ -1,0 +1,23 @@
+#include "plystrain/mesh/msh_writer.hpp"
+
+#include "plystrain/mesh/gmsh_session.hpp"
+#include "plystrain/mesh/mesh_error.hpp"
+
+#include <system_error>
+
+namespace plystrain::mesh {
+
+void write_msh(const GmshSession& session, const std::filesystem::path& path) {
+  // The temporary keeps the .msh extension: Gmsh picks the format from it.
+  std::filesystem::path temporary = path;
+  temporary.replace_filename(path.stem().string() + ".partial" + path.extension().string());
+  session.write(temporary);
+  std::error_code error;
+  std::filesystem::rename(temporary, path, error);
+  if (error) {
+    std::filesystem::remove(temporary, error);
+    throw MeshError("cannot write " + path.string() + ": " + error.message());
+  }
+}
+
+}  // namespace plystrain::mesh
