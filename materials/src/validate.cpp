@@ -25,7 +25,7 @@ std::string check_poisson(double nu) {
   }
   if (nu == 0.5) {
     return "poisson_ratio = 0.5 (exactly incompressible) cannot be used: the volumetric "
-           "energy needs a finite bulk modulus. Use 0.4999 (bulk modulus about 1700 times "
+           "energy needs a finite bulk modulus. Use 0.4999 (bulk modulus about 5000 times "
            "the shear modulus); the mixed displacement-pressure element keeps such "
            "nearly incompressible layers free of locking";
   }
