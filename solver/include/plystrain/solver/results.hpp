@@ -101,6 +101,14 @@ struct RunResults {
   std::vector<std::string> cautions;
 };
 
+// Per layer name, in the order of `run.layers` (then any layer only a local
+// check names), the governing figures over the global result and every
+// local check: the largest peak strain (with its place, far field,
+// concentration and stress), the smallest minimum strain and crack margin,
+// and the worst verdict. This is the "overall verdict of a layer" of
+// results-format.md.
+[[nodiscard]] std::vector<LayerResult> governing_layers(const RunResults& run);
+
 // One sample of profiles.csv: strain along a layer's mid-line.
 struct ProfileSample {
   std::string layer;
