@@ -46,7 +46,6 @@ GmshSession::GmshSession() {
   saved_omp_threads_ = omp_get_max_threads();
   try {
     guarded("initialize", [] { gmsh::initialize(0, nullptr, false); });
-    omp_set_num_threads(saved_omp_threads_);
     guarded("setting options", [] {
       gmsh::option::setNumber("General.Terminal", 0);
       gmsh::option::setNumber("General.Verbosity", 0);
@@ -61,6 +60,8 @@ GmshSession::GmshSession() {
       gmsh::option::setNumber("Mesh.MshFileVersion", 4.1);
       gmsh::option::setNumber("Mesh.Binary", 0);
     });
+    // Both initialize() and General.NumThreads reset the process-wide count.
+    omp_set_num_threads(saved_omp_threads_);
   } catch (...) {
     omp_set_num_threads(saved_omp_threads_);
     session_alive().store(false);

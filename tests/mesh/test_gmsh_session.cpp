@@ -1,0 +1,72 @@
+// The Gmsh session: one at a time, OpenMP thread count restored, Gmsh
+// errors turned into MeshError, .msh written with layer and set names.
+#include "stack_fixtures.hpp"
+
+#include "plystrain/mesh/gmsh_session.hpp"
+#include "plystrain/mesh/mesh_error.hpp"
+#include "plystrain/mesh/msh_writer.hpp"
+#include "plystrain/mesh/stack_mesher.hpp"
+
+#include <catch2/catch.hpp>
+#include <omp.h>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+using namespace plystrain::mesh;
+using namespace plystrain::mesh::testing;
+
+TEST_CASE("one Gmsh session at a time, thread count kept", "[gmsh]") {
+  omp_set_num_threads(2);
+  {
+    GmshSession session;
+    CHECK(omp_get_max_threads() == 2);
+    CHECK_THROWS_AS(GmshSession(), MeshError);
+    const Mesh mesh = build_stack_mesh(session, four_layer_stack(StackShape::strip));
+    CHECK(mesh.cell_count() > 0);
+    CHECK(omp_get_max_threads() == 2);
+  }
+  CHECK(omp_get_max_threads() == 2);
+  CHECK_NOTHROW(GmshSession());
+}
+
+TEST_CASE("Gmsh's own errors arrive as MeshError", "[gmsh]") {
+  GmshSession session;
+  session.new_model("probe");
+  const int a = session.add_point(0.0, 0.0);
+  // A line to a point that does not exist.
+  CHECK_THROWS_AS(session.add_line(a, 12345), MeshError);
+}
+
+TEST_CASE(".msh output names layers and edge sets", "[gmsh][msh]") {
+  const std::filesystem::path path =
+      std::filesystem::temp_directory_path() / "plystrain_mesh_test_stack.msh";
+  StackDescription stack = four_layer_stack(StackShape::strip);
+  stack.defects = {delamination(0, 0.0, 4.0, 7)};
+  Mesh mesh;
+  {
+    GmshSession session;
+    mesh = build_stack_mesh(session, stack);
+    write_msh(session, path);
+  }
+  std::ifstream file(path);
+  std::stringstream text;
+  text << file.rdbuf();
+  const std::string content = text.str();
+  CHECK(content.rfind("$MeshFormat\n4.1", 0) == 0);
+  for (const std::string name : {"\"substrate\"", "\"cap\"", "\"bottom\"", "\"symmetry\"",
+                                 "\"delamination-7-lower\"", "\"delamination-7-upper\"",
+                                 "\"interface-electrode\""}) {
+    CHECK(content.find(name) != std::string::npos);
+  }
+  // $Nodes header: blocks, node count, min tag, max tag.
+  const std::size_t nodes = content.find("$Nodes\n");
+  REQUIRE(nodes != std::string::npos);
+  std::istringstream header(content.substr(nodes + 7, 100));
+  long blocks = 0;
+  long count = 0;
+  header >> blocks >> count;
+  CHECK(count == mesh.node_count());
+  std::filesystem::remove(path);
+}
