@@ -89,10 +89,29 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
   const double controlled_start =
       options.control == ControlMode::displacement ? q_start(options.controlled_unknown) : 0.0;
 
+  // Tangent predictor at the last converged state; false when it cannot be
+  // formed (the plan then starts from the last converged state).
+  auto tangent_predictor = [&](double load_step, Eigen::VectorXd& q) {
+    Eigen::VectorXd residual;
+    Eigen::VectorXd load_column;
+    SparseMatrix tangent;
+    if (!system.evaluate(current.q, current.load_factor, residual, &tangent).ok() ||
+        !system.load_derivative(current.q, current.load_factor, load_column).ok() ||
+        !linear_solver.factorize(tangent, options.newton.symmetry).ok()) {
+      return false;
+    }
+    Eigen::VectorXd change;
+    if (!linear_solver.solve(-(residual + load_step * load_column), change).ok) {
+      return false;
+    }
+    q = current.q + change;
+    return true;
+  };
+
   auto secant_predictor = [&](double ratio, Eigen::VectorXd& q, double& load) {
     q = current.q;
     load = current.load_factor;
-    if (previous && options.predictor == Predictor::secant && last_size > 0.0) {
+    if (previous && options.predictor != Predictor::none && last_size > 0.0) {
       q += ratio * (current.q - previous->q);
       load += ratio * (current.load_factor - previous->load_factor);
     }
@@ -119,6 +138,9 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
       } else {
         // Load control (also the first arc-length increment).
         plan.load_predicted = std::min(target, options.control == ControlMode::arc_length ? options.load_factor_end : 1.0);
+        if (options.predictor == Predictor::tangent && !tangent_predictor(plan.load_predicted - current.load_factor, plan.q_predicted)) {
+          plan.q_predicted = current.q;
+        }
       }
       return plan;
     }

@@ -103,8 +103,13 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
     const bool increment_small =
         iteration > 0 &&
         predicted_increment <= std::max(options.increment_tolerance * increment_reference, options.increment_floor);
-    const bool converged =
-        path_satisfied && ((residual_norm <= residual_limit && increment_small) || residual_norm <= options.residual_floor);
+    // Stalled: no longer contracting (rounding), tiny predicted correction.
+    const bool stalled = increment_small && residual_norm > residual_limit &&
+                         residual_norm >= 0.5 * previous_residual_norm &&
+                         residual_norm <= options.stalled_residual_tolerance * residual_reference;
+    const bool converged = path_satisfied && ((residual_norm <= residual_limit && increment_small) || stalled ||
+                                              residual_norm <= options.residual_floor);
+    result.stalled_at_rounding = converged && stalled;
     if (converged) {
       if (system.update_active_set(result.q, result.load_factor)) {
         // The active set changed: the same load, new equations.
@@ -144,7 +149,8 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
     // Linearised step.
     result.last_factorization = linear_solver.factorize(tangent, options.symmetry);
     const FactorizationReport& factorization = result.last_factorization;
-    record.factorize_seconds = factorization.factorize_seconds + factorization.analyse_seconds;
+    record.analyse_seconds = factorization.analyse_seconds;
+    record.factorize_seconds = factorization.factorize_seconds;
     record.method = factorization.method;
     record.not_positive_definite = factorization.not_positive_definite;
     record.negative_pivots = factorization.negative_pivots;

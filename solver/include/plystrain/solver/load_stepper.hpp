@@ -40,6 +40,11 @@ enum class ControlMode {
 enum class Predictor {
   none,    // start each increment from the last converged state
   secant,  // extrapolate the last two converged states (falls back to none if that start cannot be evaluated)
+  // Load control only: q_n - K^-1 (R + dR/dlambda dlambda) at the last
+  // converged state (one extra factorization per increment). Spreads a
+  // prescribed boundary motion over the body, where starting from q_n would
+  // fold the elements along the moved boundary. Other modes use secant.
+  tangent,
 };
 
 // Increment sizes are fractions of the path: of lambda in [0, 1] (load

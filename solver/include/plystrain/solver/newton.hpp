@@ -31,12 +31,20 @@ namespace plystrain::solver {
 // that solved the equations exactly (a linear problem) is recognised without
 // another solve. The floors are absolute, in the units of R and q; they only
 // matter when the first residual of an increment is already tiny.
+// Rounding: when the load of an increment is small against the internal
+// forces (nearly incompressible solids, small cut-back increments), the
+// residual stalls at rounding above residual_tolerance * r_ref. An iterate
+// whose residual no longer contracts (r_k >= r_{k-1} / 2), whose predicted
+// correction passes the increment test and whose residual is below
+// stalled_residual_tolerance * r_ref is then accepted as converged
+// (NewtonResult::stalled_at_rounding says so).
 struct NewtonOptions {
   int max_iterations = 25;
   double residual_tolerance = 1e-8;
   double residual_floor = 1e-12;
   double increment_tolerance = 1e-8;
   double increment_floor = 1e-14;
+  double stalled_residual_tolerance = 1e-5;
   // Stop as diverged when r_k exceeds this multiple of r_ref.
   double divergence_factor = 1e8;
 
@@ -91,7 +99,8 @@ struct NewtonIterationRecord {
   int line_search_evaluations = 0;   // residual evaluations beyond the first
   bool line_search_failed = false;   // no factor passed the sufficient-decrease test
   double assemble_seconds = 0.0;     // evaluate() with the tangent, plus trial residuals
-  double factorize_seconds = 0.0;    // numeric factorization (plus analysis when redone)
+  double analyse_seconds = 0.0;      // symbolic analysis (first iteration, or a changed pattern)
+  double factorize_seconds = 0.0;    // numeric factorization, failed attempts before a fallback included
   double solve_seconds = 0.0;        // triangular solves
   FactorizationMethod method = FactorizationMethod::none;
   bool not_positive_definite = false;
@@ -107,6 +116,7 @@ struct NewtonResult {
   std::vector<NewtonIterationRecord> iterations;
   FactorizationReport last_factorization;
   int active_set_updates = 0;
+  bool stalled_at_rounding = false;  // converged by the rounding rule above
 
   [[nodiscard]] bool converged() const { return status == NewtonStatus::converged; }
 };

@@ -1,0 +1,149 @@
+// Solver benchmark: Newton iterations of a finite-strain plane-strain layered
+// strip (quad9; nearly incompressible neo-Hookean substrate nu = 0.499 with
+// the mixed u-p cure; a stiff thin film on top) under a stretch. Prints one
+// JSON object with the time per phase of a Newton iteration and the peak
+// resident memory. One size per process, so that the peak memory is its own.
+//
+//   plystrain_bench_solver_strip [--cells-along N] [--ordering metis|amd] [--stretch S]
+//
+// Moduli are invented for a demo (a PDMS-like substrate and a polymer-like
+// film); only the timings matter here.
+#include "plystrain/materials/law.hpp"
+#include "plystrain/mesh/structured.hpp"
+#include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/solver/model.hpp"
+#include "plystrain/solver/newton.hpp"
+
+#include <omp.h>
+#include <sys/resource.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <cstdlib>
+#include <string>
+#include <vector>
+
+namespace {
+
+using namespace plystrain;
+
+materials::LawParameters neo_hookean(double youngs_modulus, double poisson_ratio) {
+  const materials::ShearBulk moduli = materials::to_shear_bulk(youngs_modulus, poisson_ratio);
+  materials::LawParameters law;
+  law.kind = materials::ModelKind::neo_hookean;
+  law.shear_modulus = moduli.shear_modulus;
+  law.bulk_modulus = moduli.bulk_modulus;
+  return law;
+}
+
+struct Arguments {
+  int cells_along = 160;
+  solver::FillOrdering ordering = solver::FillOrdering::metis;
+  double stretch = 0.05;
+};
+
+Arguments parse(int argc, char** argv) {
+  Arguments arguments;
+  for (int i = 1; i + 1 < argc; i += 2) {
+    const std::string key = argv[i];
+    const std::string value = argv[i + 1];
+    if (key == "--cells-along") {
+      arguments.cells_along = std::stoi(value);
+    } else if (key == "--ordering") {
+      arguments.ordering = value == "amd" ? solver::FillOrdering::amd : solver::FillOrdering::metis;
+    } else if (key == "--stretch") {
+      arguments.stretch = std::stod(value);
+    } else {
+      std::fprintf(stderr, "unknown option %s\n", key.c_str());
+      std::exit(2);
+    }
+  }
+  return arguments;
+}
+
+double peak_rss_mb() {
+  rusage usage{};
+  getrusage(RUSAGE_SELF, &usage);
+  return static_cast<double>(usage.ru_maxrss) / 1024.0;  // kilobytes on Linux
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  const Arguments arguments = parse(argc, argv);
+  // A strip 8 times as long as thick: substrate cells square-ish, one film
+  // cell through its thickness.
+  const double width = 4000.0;  // micrometres
+  const double substrate = 500.0;
+  const double film = 2.0;
+  mesh::LayeredRectangleSpec spec;
+  spec.width = width;
+  spec.cells_along = arguments.cells_along;
+  spec.layers = {{"substrate", substrate, std::max(1, arguments.cells_along / 8), 1.0}, {"film", film, 1, 1.0}};
+  spec.cell_type = mesh::CellType::quad9;
+
+  const auto build_start = std::chrono::steady_clock::now();
+  solver::ModelDefinition definition;
+  definition.kinematics = solver::Kinematics::plane_strain;
+  definition.regions = {{neo_hookean(1.0, 0.499), solver::LockingCure::automatic},
+                        {neo_hookean(2000.0, 0.35), solver::LockingCure::automatic}};
+  definition.displacements.push_back(solver::symmetry("left", 0));
+  definition.displacements.push_back(solver::symmetry("bottom", 1));
+  solver::PrescribedDisplacement pull;
+  pull.node_set = "right";
+  pull.component = 0;
+  pull.value = solver::ScaledValue{arguments.stretch * width, {}};
+  definition.displacements.push_back(pull);
+  solver::Model model(mesh::layered_rectangle(spec), definition);
+  const double build_seconds =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - build_start).count();
+
+  solver::LinearSolverOptions linear_options;
+  linear_options.ordering = arguments.ordering;
+  solver::DirectSparseSolver linear_solver(linear_options);
+  solver::NewtonOptions newton;
+  newton.symmetry = model.tangent_is_symmetric() ? solver::MatrixSymmetry::symmetric : solver::MatrixSymmetry::unsymmetric;
+
+  // One load increment with the tangent predictor (which spreads the pulled
+  // edge's motion over the strip), then Newton iterations.
+  solver::LoadStepperOptions options;
+  options.steps = 1;
+  options.predictor = solver::Predictor::tangent;
+  options.keep_states = false;
+  options.newton = newton;
+  std::vector<solver::NewtonIterationRecord> records;
+  solver::LoadStepperCallbacks callbacks;
+  callbacks.on_iteration = [&records](int, const solver::NewtonIterationRecord& record) { records.push_back(record); };
+  const auto start = std::chrono::steady_clock::now();
+  const solver::LoadPathResult path =
+      solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, callbacks);
+  const double total = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+
+  // Per Newton iteration: the records with a linear solve (the record of the
+  // converged state has none). The symbolic analysis is reported apart.
+  int iterations = 0;
+  double assemble = 0.0, analyse = 0.0, factorize = 0.0, solve = 0.0, final_residual = 0.0;
+  for (const auto& record : records) {
+    final_residual = record.residual_norm;
+    analyse += record.analyse_seconds;
+    if (record.solve_seconds > 0.0) {
+      ++iterations;
+      assemble += record.assemble_seconds;
+      factorize += record.factorize_seconds;
+      solve += record.solve_seconds;
+    }
+  }
+  const double per = iterations > 0 ? 1.0 / iterations : 0.0;
+  std::printf(
+      "{\"unknowns\": %d, \"cells\": %d, \"ordering\": \"%s\", \"threads\": %d, \"status\": \"%s\", "
+      "\"increments\": %zu, \"failed_attempts\": %d, \"newton_iterations\": %d, \"final_residual\": %.3e, "
+      "\"build_s\": %.3f, \"analyse_s\": %.3f, \"assemble_s\": %.4f, \"factorize_s\": %.4f, \"solve_s\": %.4f, "
+      "\"newton_iteration_s\": %.4f, \"path_s\": %.3f, \"peak_rss_mb\": %.1f}\n",
+      model.size(), model.mesh().cell_count(), arguments.ordering == solver::FillOrdering::metis ? "metis" : "amd",
+      omp_get_max_threads(), solver::status_name(path.status), path.increments.size(), path.failed_attempts,
+      iterations, final_residual, build_seconds, analyse, assemble * per, factorize * per, solve * per,
+      (assemble + factorize + solve) * per, total, peak_rss_mb());
+  return path.completed() ? 0 : 1;
+}
