@@ -1,5 +1,5 @@
 // Test helpers for the finite-element core: a plain Newton loop on a model
-// (sparse LDL' or LU from Eigen, full steps) and small law constructors.
+// (sparse LDL' or LU from Eigen, with a backtracking step) and small law constructors.
 #pragma once
 
 #include "plystrain/materials/law.hpp"
@@ -8,6 +8,7 @@
 #include <Eigen/SparseCholesky>
 #include <Eigen/SparseLU>
 
+#include <limits>
 #include <stdexcept>
 #include <string>
 
@@ -43,6 +44,7 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
   for (int step = 1; step <= steps; ++step) {
     const double lambda = load_factor_end * step / steps;
     double reference = -1.0;
+    double last_step = std::numeric_limits<double>::infinity();
     bool converged = false;
     for (int it = 0; it < max_iterations; ++it) {
       const solver::Evaluation e = model.evaluate(out.q, lambda, r, &K);
@@ -55,11 +57,13 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
       }
       out.residual_norm = norm;
       ++out.iterations;
-      if (norm <= tolerance * reference || norm < 1e-14) {
-        converged = it > 0 || norm < 1e-14;
-        if (converged) {
-          break;
-        }
+      // Converged when the residual fell by `tolerance`, or when the last
+      // correction was at the level of round-off in q (tiny-load linear
+      // problems cannot reduce the residual below round-off).
+      if ((it > 0 && norm <= tolerance * reference) || norm < 1e-300 ||
+          (it > 0 && last_step <= 1e-8 * std::max(out.q.norm(), 1e-300))) {
+        converged = true;
+        break;
       }
       Eigen::VectorXd dq;
       if (model.tangent_is_symmetric()) {
@@ -76,7 +80,20 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
         }
         dq = lu.solve(r);
       }
-      out.q -= dq;
+      // Backtracking: halve the step while the trial state cannot be
+      // evaluated (an inverted cell) or the residual grows.
+      double factor = 1.0;
+      Eigen::VectorXd trial_residual;
+      for (int cut = 0; cut < 12; ++cut) {
+        const Eigen::VectorXd trial = out.q - factor * dq;
+        const solver::Evaluation t = model.evaluate(trial, lambda, trial_residual, nullptr);
+        if (t.ok() && trial_residual.norm() < std::max(norm, 1e-300) * 1.5) {
+          break;
+        }
+        factor *= 0.5;
+      }
+      out.q -= factor * dq;
+      last_step = factor * dq.norm();
     }
     if (!converged) {
       throw std::runtime_error("Newton did not converge at load factor " + std::to_string(lambda) +

@@ -141,16 +141,25 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
   // Constraints: prescribed values first, then the axis, rigid faces and
   // multi-point constraints (each eliminates a still-free unknown).
   auto variable = [](int node, int component) { return 2 * node + component; };
+  // Overlapping sets (a corner in two symmetry planes' sets) may prescribe
+  // zero twice; any other repetition is an error.
+  std::vector<bool> fixed_at_zero(static_cast<std::size_t>(variable_count), false);
   for (const PrescribedDisplacement& p : definition.displacements) {
     const std::string what = "prescribed displacement on '" + p.node_set + "'";
     const int component = require_component(p.component, what);
+    const bool zero = !p.field && !p.value.function && p.value.value == 0.0;
     for (const int node : require_node_set(mesh, p.node_set, what)) {
+      const int v = variable(node, component);
+      if (zero && fixed_at_zero[static_cast<std::size_t>(v)]) {
+        continue;
+      }
+      fixed_at_zero[static_cast<std::size_t>(v)] = zero;
       Signal signal = signal_of(p.value);
       if (p.field) {
         const Eigen::Vector2d X = mesh.nodes[static_cast<std::size_t>(node)];
         signal = [field = p.field, X](double load_factor) { return field(X, load_factor); };
       }
-      constraints.prescribe(variable(node, component), std::move(signal), what);
+      constraints.prescribe(v, std::move(signal), what);
     }
   }
   if (definition.kinematics == Kinematics::generalized_plane_strain) {
