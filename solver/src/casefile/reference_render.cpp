@@ -73,8 +73,8 @@ std::string render_case_format_reference() {
   std::ostringstream page;
   page << "# Case format reference, version 1\n\n"
        << "Generated from the declared key table (solver/src/casefile/key_table.cpp); do not\n"
-       << "edit by hand. Regenerate with\n"
-       << "`plystrain_tests_casefile \"[.regenerate]\"` from the build directory.\n\n"
+       << "edit by hand. Regenerate with `plystrain reference > docs/case-format-reference.md`\n"
+       << "or `plystrain_tests_casefile \"[.regenerate]\"`; a test fails when it is stale.\n\n"
        << "Conventions\n"
        << "- Lengths are in the unit named by `units` (`nm`, `um`, `mm`, `m`) and are\n"
        << "  converted to micrometres once, when the case is read. Strains are nominal\n"
