@@ -130,6 +130,14 @@ void validate_stack(const StackDescription& stack) {
       }
       const detail::DefectExtent ea = detail::extent_of(a);
       const detail::DefectExtent eb = detail::extent_of(b);
+      const bool both_stepped = a.kind == DefectKind::thin_spot && b.kind == DefectKind::thin_spot &&
+                                a.taper == 0.0 && b.taper == 0.0;
+      if (both_stepped && a.depth != b.depth) {
+        throw MeshError::for_defect(
+            b.case_index, "thin spot: stepped thin spots in one layer must share one depth (defect " +
+                              std::to_string(a.case_index) + " has " + number(a.depth) +
+                              "); give one of them a taper");
+      }
       const bool touching = a_face && (ea.hi == eb.lo || eb.hi == ea.lo);
       if (overlap(ea, eb) || touching) {
         throw MeshError::for_defect(

@@ -209,6 +209,17 @@ Layout make_layout(const StackDescription& stack) {
 
   const int layer_count = static_cast<int>(stack.layers.size());
   const std::vector<int> counts = layer_element_counts(stack);
+  // Depth and wall elements of the stepped thin spots of each layer (one
+  // depth per layer, checked by validate_stack).
+  std::vector<double> step_depth(stack.layers.size(), 0.0);
+  std::vector<int> step_wall(stack.layers.size(), 0);
+  for (const StackDefect& defect : stack.defects) {
+    if (defect.kind == DefectKind::thin_spot && defect.taper == 0.0) {
+      const auto li = static_cast<std::size_t>(defect.layer);
+      step_depth[li] = defect.depth * stack.layers[li].thickness;
+      step_wall[li] = step_wall_elements(defect, stack.layers[li].elements_through);
+    }
+  }
   std::vector<double> nominal_top(stack.layers.size());
   double running = 0.0;
   for (int l = 0; l < layer_count; ++l) {
@@ -219,11 +230,12 @@ Layout make_layout(const StackDescription& stack) {
   for (const Column& column : layout.columns) {
     const double mid = 0.5 * (column.x0 + column.x1);
     std::vector<Band> bands(stack.layers.size());
-    // The surface the next layer rests on, its owner, and the elements a
+    // The surface the next layer rests on, its owner, and the sub-bands a
     // layer resting on it takes over (filled cavities below it).
     std::array<double, 2> support{0.0, 0.0};
     int support_owner = rests_on_ground;
-    int support_extra = 0;
+    std::vector<std::array<double, 2>> carried_levels;
+    std::vector<int> carried_elements;
     for (int l = 0; l < layer_count; ++l) {
       const auto li = static_cast<std::size_t>(l);
       const StackLayer& layer = stack.layers[li];
@@ -249,14 +261,15 @@ Layout make_layout(const StackDescription& stack) {
         if (pinhole->fill == CavityFill::empty || is_top) {
           support = {flat_top, flat_top};
           support_owner = rests_on_nothing;
-          support_extra = 0;
+          carried_levels.clear();
+          carried_elements.clear();
         } else {
-          support_extra += counts[li];
+          carried_levels.push_back({flat_top, flat_top});
+          carried_elements.push_back(counts[li]);
         }
         continue;
       }
       band.present = true;
-      band.elements = counts[li] + support_extra;
       band.top = {flat_top, flat_top};
       int wall = 0;
       if (spot != nullptr) {
@@ -265,17 +278,38 @@ Layout make_layout(const StackDescription& stack) {
         band.top = {flat_top - depth * shape[0], flat_top - depth * shape[1]};
         if (spot->taper == 0.0) {
           wall = step_wall_elements(*spot, layer.elements_through);
-          band.elements -= wall;
         }
       }
+      band.levels = carried_levels;
+      band.sub_elements = carried_elements;
+      // Beside a stepped thin spot of this layer the band is split at the
+      // recess floor, so its nodes line up with the step wall everywhere.
+      const double floor = flat_top - step_depth[li];
+      const double tolerance = 1e-9 * flat_top;
+      if (step_depth[li] > 0.0 && wall == 0 && band.top[0] > floor + tolerance &&
+          band.top[1] > floor + tolerance) {
+        band.levels.push_back({floor, floor});
+        band.sub_elements.push_back(counts[li] - step_wall[li]);
+        band.sub_elements.push_back(step_wall[li]);
+      } else {
+        band.sub_elements.push_back(counts[li] - wall);
+      }
+      band.elements = 0;
+      for (const int e : band.sub_elements) {
+        band.elements += e;
+      }
+      carried_levels.clear();
+      carried_elements.clear();
       if (spot != nullptr && (spot->fill == CavityFill::empty || is_top)) {
         support = {flat_top, flat_top};
         support_owner = rests_on_nothing;
-        support_extra = 0;
       } else {
         support = band.top;
         support_owner = l;
-        support_extra = wall;
+        if (wall > 0) {
+          carried_levels.push_back({flat_top, flat_top});
+          carried_elements.push_back(wall);
+        }
       }
     }
     layout.bands.push_back(std::move(bands));

@@ -41,6 +41,13 @@ struct Band {
   std::array<double, 2> top{};
   int rests_on = rests_on_ground;  // layer whose top face carries this band, or the above
   int elements = 1;                // through the thickness
+  // A band that fills cavities is split at the nominal faces of what it
+  // fills (a step wall, the layers of filled pinholes), so that its nodes
+  // line up with those of the layers beside the cavity: `levels` are the
+  // inner split heights at x0 and x1 (bottom to top), `sub_elements` the
+  // elements of each of the levels.size() + 1 sub-bands (summing to elements).
+  std::vector<std::array<double, 2>> levels;
+  std::vector<int> sub_elements;
 };
 
 struct Layout {

@@ -98,7 +98,29 @@ class StackGeometry {
     std::vector<SetPiece> pieces;  // surface filled in when created
     std::vector<int> left_side;    // vertical curves, bottom to top
     std::vector<int> right_side;
+    // Per sub-band (see Band::levels): its curves on each side.
+    std::vector<std::vector<int>> left_parts;
+    std::vector<std::vector<int>> right_parts;
   };
+
+  // The vertical curves of one side of a band, per sub-band.
+  std::vector<std::vector<int>> band_side(int column, int layer, int end, int bottom_point,
+                                          int top_point) {
+    const Band& b = band(column, layer);
+    const auto e = static_cast<std::size_t>(end);
+    const int line = column + end;
+    std::vector<std::pair<int, double>> stops{{bottom_point, b.bottom[e]}};
+    for (const std::array<double, 2>& level : b.levels) {
+      stops.emplace_back(point(line, level[e], false), level[e]);
+    }
+    stops.emplace_back(top_point, b.top[e]);
+    std::vector<std::vector<int>> parts;
+    for (std::size_t k = 0; k + 1 < stops.size(); ++k) {
+      parts.push_back(vertical_side(line, stops[k].first, stops[k].second, stops[k + 1].first,
+                                    stops[k + 1].second));
+    }
+    return parts;
+  }
 
   [[nodiscard]] const Band& band(int column, int layer) const {
     return layout_.bands[static_cast<std::size_t>(column)][static_cast<std::size_t>(layer)];
@@ -220,6 +242,9 @@ class StackGeometry {
         for (const int end : {0, 1}) {
           bottom_corner(c, l, end);
           top_corner(c, l, end);
+          for (const std::array<double, 2>& level : band(c, l).levels) {
+            point(c + end, level[static_cast<std::size_t>(end)], false);
+          }
         }
       }
     }
@@ -292,8 +317,14 @@ class StackGeometry {
             delaminated_[static_cast<std::size_t>(c)][static_cast<std::size_t>(b.rests_on)] >= 0;
         const int bottom = horizontal(c, bl, br, on_open_face ? 1 : 0);
         const int top = horizontal(c, tl, tr, 0);
-        patch.right_side = vertical_side(c + 1, br, b.bottom[1], tr, b.top[1]);
-        patch.left_side = vertical_side(c, bl, b.bottom[0], tl, b.top[0]);
+        patch.right_parts = band_side(c, l, 1, br, tr);
+        patch.left_parts = band_side(c, l, 0, bl, tl);
+        for (const std::vector<int>& part : patch.right_parts) {
+          patch.right_side.insert(patch.right_side.end(), part.begin(), part.end());
+        }
+        for (const std::vector<int>& part : patch.left_parts) {
+          patch.left_side.insert(patch.left_side.end(), part.begin(), part.end());
+        }
         patch.loop.push_back(bottom);
         patch.loop.insert(patch.loop.end(), patch.right_side.begin(), patch.right_side.end());
         patch.loop.push_back(-top);
@@ -359,9 +390,11 @@ class StackGeometry {
     };
     std::vector<Side> sides;
     for (const PendingPatch& patch : pending_) {
-      const int elements = band(patch.column, patch.layer).elements;
-      sides.push_back({patch.left_side, elements, patch.layer, patch.column});
-      sides.push_back({patch.right_side, elements, patch.layer, patch.column});
+      const std::vector<int>& elements = band(patch.column, patch.layer).sub_elements;
+      for (std::size_t k = 0; k < elements.size(); ++k) {
+        sides.push_back({patch.left_parts[k], elements[k], patch.layer, patch.column});
+        sides.push_back({patch.right_parts[k], elements[k], patch.layer, patch.column});
+      }
     }
     const auto conflict = [&](const Side& side) {
       std::ostringstream message;

@@ -60,6 +60,9 @@ TEST_CASE("thin spots that cannot be built", "[stack][errors]") {
   require_defect_error(stack, 3, "taper");
   stack.defects = {thin_spot(1, 5.0, 2.0, 1.0, 0.0, CavityFill::above, 3)};
   require_defect_error(stack, 3, "depth");
+  stack.defects = {thin_spot(1, 5.0, 2.0, 0.5, 0.0, CavityFill::above, 1),
+                   thin_spot(1, 12.0, 2.0, 0.3, 0.0, CavityFill::above, 2)};
+  require_defect_error(stack, 2, "share one depth");
 }
 
 TEST_CASE("delaminations and overlaps that cannot be built", "[stack][errors]") {

@@ -323,6 +323,15 @@ TEST_CASE("cell types and quality of stack meshes", "[stack][quality]") {
     CHECK(quality.min_scaled_jacobian() == Approx(1.0).epsilon(1e-12));
     CHECK(quality.inverted_cells() == 0);
   }
+  SECTION("filled cavities with steps: the nodes line up, still all rectangles") {
+    stack.defects = {pinhole(2, 0.0, 2.0, CavityFill::above, 1),
+                     thin_spot(1, 0.0, 4.0, 0.5, 0.0, CavityFill::above, 2),
+                     pinhole(1, 9.0, 1.0, CavityFill::above, 3),
+                     pinhole(2, 9.0, 1.0, CavityFill::above, 4),
+                     thin_spot(0, 15.0, 2.0, 0.3, 0.0, CavityFill::empty, 5)};
+    const MeshQuality quality = measure_quality(build_stack_mesh(stack));
+    CHECK(quality.min_scaled_jacobian() == Approx(1.0).epsilon(1e-9));
+  }
   SECTION("linear on request, sloped cells in a taper stay valid") {
     stack.order = 1;
     stack.defects = {thin_spot(3, 0.0, 4.0, 0.5, 1.0, CavityFill::empty)};
