@@ -263,6 +263,13 @@ Layout make_layout(const StackDescription& stack) {
           support_owner = rests_on_nothing;
           carried_levels.clear();
           carried_elements.clear();
+        } else if (step_depth[li] > 0.0) {
+          // Keep the split of this layer's bands at its step floor.
+          const double floor = flat_top - step_depth[li];
+          carried_levels.push_back({floor, floor});
+          carried_elements.push_back(counts[li] - step_wall[li]);
+          carried_levels.push_back({flat_top, flat_top});
+          carried_elements.push_back(step_wall[li]);
         } else {
           carried_levels.push_back({flat_top, flat_top});
           carried_elements.push_back(counts[li]);

@@ -328,7 +328,8 @@ TEST_CASE("cell types and quality of stack meshes", "[stack][quality]") {
                      thin_spot(1, 0.0, 4.0, 0.5, 0.0, CavityFill::above, 2),
                      pinhole(1, 9.0, 1.0, CavityFill::above, 3),
                      pinhole(2, 9.0, 1.0, CavityFill::above, 4),
-                     thin_spot(0, 15.0, 2.0, 0.3, 0.0, CavityFill::empty, 5)};
+                     thin_spot(0, 15.0, 2.0, 0.3, 0.0, CavityFill::empty, 5),
+                     thin_spot(1, 12.5, 1.0, 0.5, 0.0, CavityFill::empty, 6)};
     const MeshQuality quality = measure_quality(build_stack_mesh(stack));
     CHECK(quality.min_scaled_jacobian() == Approx(1.0).epsilon(1e-9));
   }
