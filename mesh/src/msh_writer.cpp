@@ -8,9 +8,10 @@
 namespace plystrain::mesh {
 
 void write_msh(const GmshSession& session, const std::filesystem::path& path) {
-  // The temporary keeps the .msh extension: Gmsh picks the format from it.
+  // The temporary ends in .msh whatever the target's name: Gmsh picks the
+  // format from the extension.
   std::filesystem::path temporary = path;
-  temporary.replace_filename(path.stem().string() + ".partial" + path.extension().string());
+  temporary.replace_filename(path.filename().string() + ".partial.msh");
   session.write(temporary);
   std::error_code error;
   std::filesystem::rename(temporary, path, error);

@@ -49,6 +49,14 @@ TEST_CASE(".msh output names layers and edge sets", "[gmsh][msh]") {
     GmshSession session;
     mesh = build_stack_mesh(session, stack);
     write_msh(session, path);
+    // Any target name gets the .msh format.
+    const std::filesystem::path plain = path.parent_path() / "plystrain_mesh_test_stack_plain";
+    write_msh(session, plain);
+    std::ifstream plain_file(plain);
+    std::string first_line;
+    std::getline(plain_file, first_line);
+    CHECK(first_line == "$MeshFormat");
+    std::filesystem::remove(plain);
   }
   std::ifstream file(path);
   std::stringstream text;
