@@ -81,6 +81,7 @@ inline InflationRun inflate_sphere(const InflationSpec& spec) {
   pressure.edge_set = "inner";
   pressure.pressure = solver::ScaledValue{spec.reference_pressure, {}};
   definition.pressures.push_back(pressure);
+  definition.threads = 1;  // tiny meshes: thread start-up would cost more than the work
   solver::Model model(mesh, definition);
 
   solver::LoadStepperOptions options;

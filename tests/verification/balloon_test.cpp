@@ -30,15 +30,15 @@ TEST_CASE("thin neo-Hookean balloon follows Ogden's curve past the pressure maxi
   spec.inner_radius = 0.99;
   spec.outer_radius = 1.01;
   spec.cells_radial = 2;
-  spec.cells_angular = 10;
+  spec.cells_angular = 6;
   const double mid_radius = 1.0;
   const double thickness = 0.02;
   // Load factor 1 is the theoretical maximum pressure.
   const double peak = membrane_pressure(std::pow(7.0, 1.0 / 6.0));
   spec.reference_pressure = peak * spec.shear_modulus * thickness / mid_radius;
-  spec.stop_inner_stretch = 1.9;
+  spec.stop_inner_stretch = 1.7;
   spec.steps = 10;
-  spec.max_increment = 0.05;
+  spec.max_increment = 0.1;
   const plystrain::test::InflationRun run = plystrain::test::inflate_sphere(spec);
   INFO(run.path.reason);
   REQUIRE(run.path.status == plystrain::solver::PathStatus::stopped_by_caller);
@@ -56,14 +56,15 @@ TEST_CASE("thin neo-Hookean balloon follows Ogden's curve past the pressure maxi
       peak_index = i;
     }
   }
-  // Within 0.5 % of the peak pressure all along the path (compressibility
-  // 3 mu / kappa = 3e-4, membrane error 2e-5, discretisation the rest).
-  CHECK(worst < 5e-3);
+  // Within 0.1 % of the peak pressure all along the path (verification.md
+  // asks 0.5 %; compressibility 3 mu / kappa = 3e-4, membrane error 2e-5,
+  // discretisation the rest).
+  CHECK(worst < 1e-3);
   // The path went past the maximum: the pressure fell afterwards.
   REQUIRE(peak_index > 0);
   REQUIRE(peak_index + 1 < run.points.size());
   CHECK(run.points.back().pressure < 0.95 * run.points[peak_index].pressure);
-  CHECK(run.points[peak_index].pressure / spec.reference_pressure == Approx(1.0).epsilon(5e-3));
+  CHECK(run.points[peak_index].pressure / spec.reference_pressure == Approx(1.0).epsilon(1e-3));
   // Location of the maximum from a parabola through the three increments
   // around the largest sampled pressure.
   auto mid_stretch = [&](size_t i) {
@@ -77,5 +78,5 @@ TEST_CASE("thin neo-Hookean balloon follows Ogden's curve past the pressure maxi
   const double numerator = (x1 - x0) * (x1 - x0) * (y1 - y2) - (x1 - x2) * (x1 - x2) * (y1 - y0);
   const double denominator = (x1 - x0) * (y1 - y2) - (x1 - x2) * (y1 - y0);
   const double peak_stretch = x1 - 0.5 * numerator / denominator;
-  CHECK(peak_stretch == Approx(std::pow(7.0, 1.0 / 6.0)).epsilon(1e-2));
+  CHECK(peak_stretch == Approx(std::pow(7.0, 1.0 / 6.0)).epsilon(2e-3));
 }
