@@ -80,7 +80,7 @@ Command add_mesh_command(CLI::App& app) {
               mesh::write_msh(session, temporary);
               return true;
             });
-            write_mesh_vtu(grid, out / "mesh.vtu");
+            solver::write_mesh_vtu(grid, out / "mesh.vtu");
 
             std::cout << spec.title.value << "\n";
             std::cout << "  " << grid.node_count() << " nodes, " << grid.cell_count()

@@ -26,6 +26,7 @@ int main(int argc, char** argv) {
       add_materials_command(app),
       add_reference_command(app),
       add_mesh_command(app),
+      add_run_command(app),
   };
 
   try {

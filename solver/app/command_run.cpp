@@ -1,0 +1,46 @@
+// `plystrain run CASE [--out DIR]`: solve the case and write its results.
+#include "commands.hpp"
+
+#include "plystrain/solver/case_reader.hpp"
+#include "plystrain/solver/run_pipeline.hpp"
+
+#include <iostream>
+#include <memory>
+#include <string>
+
+namespace plystrain::cli {
+
+Command add_run_command(CLI::App& app) {
+  struct Options {
+    std::string case_path;
+    std::string out;
+    int threads = 0;
+  };
+  auto options = std::make_shared<Options>();
+  CLI::App* command = app.add_subcommand(
+      "run", "Solve a case: per-layer peak strain, concentration, margins and verdicts");
+  command->add_option("CASE", options->case_path, "The case file (TOML)")->required();
+  command->add_option("--out", options->out, "Output directory (default: the case's report.out)");
+  command->add_option("--threads", options->threads,
+                      "Threads for assembly (default: all cores)")
+      ->check(CLI::NonNegativeNumber);
+  return {command, [options] {
+            const CaseSpec spec = read_case(options->case_path);
+            RunOptions run;
+            run.out = options->out.empty() ? spec.report.out.value
+                                           : std::filesystem::path(options->out);
+            run.threads = options->threads;
+            run.progress = [](const std::string& line) { std::cout << line << "\n" << std::flush; };
+            std::cout << spec.title.value << "\n";
+            const RunOutcome outcome = run_case(spec, run);
+            std::cout << "\n" << outcome.table;
+            std::cout << "\nResults in " << outcome.out.string() << " (results.json, summary.txt";
+            if (spec.report.fields.value) {
+              std::cout << "; open fields.pvd in ParaView";
+            }
+            std::cout << ")\n";
+            return outcome.results.completed ? exit_done : exit_load_not_reached;
+          }};
+}
+
+}  // namespace plystrain::cli

@@ -1,0 +1,226 @@
+// Boundary conditions of the stack analyses.
+//
+// Stretch (strip): the outer edge moves by strain * width along x, the
+// symmetry plane is held in x (or, on a full-width strip, the left edge moves
+// the other way), one bottom node is held in z. The third direction follows
+// `lateral`: free = generalized plane strain with zero out-of-plane resultant,
+// held = plane strain, a number = generalized plane strain with that strain.
+// A uniform edge displacement is consistent with the homogeneous solution of
+// a bonded laminate (every layer then has the same in-plane strain), so the
+// edge itself adds no concentration.
+//
+// Stretch (disk): axisymmetric, the outer edge moves radially by strain *
+// radius: equibiaxial in-plane strain.
+//
+// Bend (strip): pure bending. The symmetry plane stays plane and vertical;
+// the outer edge is a rigid line rotated by width / R with free translation,
+// so there is no net axial force and the stack finds its own neutral plane.
+// At the neutral plane the fibre keeps its length, so its radius is R
+// (plane sections stay plane; exact for a bonded laminate, Timoshenko &
+// Goodier, Theory of Elasticity, 1970, pure bending).
+#include "plystrain/solver/stack_analysis.hpp"
+
+#include "plystrain/solver/input_error.hpp"
+
+#include <cmath>
+#include <limits>
+#include <sstream>
+
+namespace plystrain {
+
+namespace {
+
+int nearest_bottom_node(const mesh::Mesh& grid, double x_target) {
+  std::vector<int> bottom = mesh::nodes_of_edge_set(grid, "bottom");
+  if (bottom.empty()) {
+    throw std::logic_error("stack mesh has no 'bottom' edge set");
+  }
+  int best = bottom.front();
+  double best_distance = std::numeric_limits<double>::infinity();
+  for (const int node : bottom) {
+    const double distance = std::abs(grid.nodes[static_cast<std::size_t>(node)].x() - x_target);
+    if (distance < best_distance) {
+      best = node;
+      best_distance = distance;
+    }
+  }
+  return best;
+}
+
+void require_node_set(const mesh::Mesh& grid, const std::string& name) {
+  if (!grid.node_sets.contains(name)) {
+    throw std::logic_error("stack mesh has no '" + name + "' node set");
+  }
+}
+
+solver::PrescribedDisplacement prescribe(const std::string& set, int component, double at_full) {
+  solver::PrescribedDisplacement condition;
+  condition.node_set = set;
+  condition.component = component;
+  condition.value.value = at_full;
+  return condition;
+}
+
+std::vector<solver::RegionDefinition> region_laws(const CaseSpec& spec) {
+  std::vector<solver::RegionDefinition> regions;
+  for (const LayerSpec& layer : spec.layers) {
+    const materials::MaterialRecord* record = spec.library.find(layer.material.value);
+    if (record == nullptr) {
+      throw InputError(layer.material.where, "layer." + layer.name.value + ".material",
+                       "unknown material \"" + layer.material.value + "\"");
+    }
+    solver::RegionDefinition region;
+    region.law = record->law;
+    regions.push_back(region);
+  }
+  return regions;
+}
+
+void set_third_direction(const LateralCondition& lateral, solver::ModelDefinition& definition) {
+  switch (lateral.mode) {
+    case LateralMode::held:
+      definition.kinematics = solver::Kinematics::plane_strain;
+      break;
+    case LateralMode::free:
+      definition.kinematics = solver::Kinematics::generalized_plane_strain;
+      definition.out_of_plane.prescribed_strain.reset();
+      definition.out_of_plane.resultant.value = 0.0;
+      break;
+    case LateralMode::imposed:
+      definition.kinematics = solver::Kinematics::generalized_plane_strain;
+      definition.out_of_plane.prescribed_strain = solver::ScaledValue{lateral.strain, {}};
+      break;
+  }
+}
+
+solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
+  solver::LoadStepperOptions options;
+  options.steps = spec.load.steps.value;
+  options.max_steps = spec.load.max_steps.value;
+  options.max_increment = 1.0 / std::max(1, spec.load.steps.value) * 4.0;
+  // A debonded film span has almost no bending stiffness; a full first step
+  // from rest throws it far off (verification.md, section 6).
+  for (const DefectSpec& defect : spec.defects) {
+    if (defect.kind.value == DefectKind::delamination) {
+      options.geometric_ramp = true;
+    }
+  }
+  return options;
+}
+
+solver::ModelDefinition stretch_definition(const CaseSpec& spec, const mesh::Mesh& grid) {
+  solver::ModelDefinition definition;
+  definition.regions = region_laws(spec);
+  const double width = spec.geometry.width.value;
+  const double edge_displacement = spec.load.strain.value * width;
+  require_node_set(grid, "outer");
+  definition.displacements.push_back(prescribe("outer", 0, edge_displacement));
+  definition.displacements.push_back(prescribe(anchor_node_set, 1, 0.0));
+  if (spec.geometry.shape.value == Shape::disk) {
+    // The model holds u_r = 0 on the axis by itself.
+    definition.kinematics = solver::Kinematics::axisymmetric;
+    return definition;
+  }
+  set_third_direction(spec.load.lateral.value, definition);
+  if (spec.geometry.symmetric.value) {
+    require_node_set(grid, "symmetry");
+    definition.displacements.push_back(solver::symmetry("symmetry", 0));
+  } else {
+    require_node_set(grid, "outer-left");
+    definition.displacements.push_back(prescribe("outer-left", 0, -edge_displacement));
+  }
+  return definition;
+}
+
+solver::ModelDefinition bend_definition(const CaseSpec& spec, const mesh::Mesh& grid,
+                                        double radius) {
+  solver::ModelDefinition definition;
+  definition.regions = region_laws(spec);
+  set_third_direction(spec.load.lateral.value, definition);
+  const double width = spec.geometry.width.value;
+  // Positive radius: the top of the stack on the convex side, so the outer
+  // edge turns clockwise (towards -z) for a centre of curvature below.
+  const double end_angle = -width / radius;
+  require_node_set(grid, "outer");
+  solver::RigidFace outer;
+  outer.node_set = "outer";
+  outer.reference_point = Eigen::Vector2d(width, 0.0);
+  outer.angle.value = end_angle;
+  definition.rigid_faces.push_back(outer);
+  definition.displacements.push_back(prescribe(anchor_node_set, 1, 0.0));
+  if (spec.geometry.symmetric.value) {
+    require_node_set(grid, "symmetry");
+    definition.displacements.push_back(solver::symmetry("symmetry", 0));
+  } else {
+    require_node_set(grid, "outer-left");
+    solver::RigidFace left;
+    left.node_set = "outer-left";
+    left.reference_point = Eigen::Vector2d(-width, 0.0);
+    left.angle.value = -end_angle;
+    definition.rigid_faces.push_back(left);
+    definition.displacements.push_back(prescribe(anchor_node_set, 0, 0.0));
+  }
+  return definition;
+}
+
+std::string length_label(double micrometres, LengthUnit unit) {
+  std::ostringstream text;
+  text << micrometres / micrometres_per(unit) << " " << unit_name(unit);
+  return text.str();
+}
+
+}  // namespace
+
+std::vector<LoadCase> build_load_cases(const CaseSpec& spec, mesh::Mesh& grid) {
+  // x = 0 is the symmetry plane, the axis, or the middle of a full strip.
+  grid.node_sets[anchor_node_set] = {nearest_bottom_node(grid, 0.0)};
+
+  std::vector<LoadCase> cases;
+  switch (spec.load.kind.value) {
+    case LoadKind::stretch: {
+      LoadCase load_case;
+      load_case.definition = stretch_definition(spec, grid);
+      load_case.stepper = stepper_options(spec);
+      cases.push_back(std::move(load_case));
+      break;
+    }
+    case LoadKind::bend: {
+      const std::vector<double>& radii = spec.load.radius.value;
+      for (const double radius : radii) {
+        LoadCase load_case;
+        load_case.bend_radius = radius;
+        if (radii.size() > 1) {
+          load_case.label = "radius " + length_label(radius, spec.units.value);
+        }
+        load_case.definition = bend_definition(spec, grid, radius);
+        load_case.stepper = stepper_options(spec);
+        cases.push_back(std::move(load_case));
+      }
+      break;
+    }
+    case LoadKind::conform:
+      throw InputError(spec.load.kind.where, "load.kind",
+                       "\"conform\" is not available in this version of plystrain "
+                       "(stretch and bend are)");
+  }
+  return cases;
+}
+
+std::string lateral_text(const CaseSpec& spec) {
+  if (spec.geometry.shape.value == Shape::disk || spec.load.kind.value == LoadKind::conform) {
+    return "";
+  }
+  const LateralCondition& lateral = spec.load.lateral.value;
+  switch (lateral.mode) {
+    case LateralMode::free: return "free";
+    case LateralMode::held: return "held";
+    case LateralMode::imposed: {
+      std::ostringstream text;
+      text << lateral.strain;
+      return text.str();
+    }
+  }
+  return "";
+}
+
+}  // namespace plystrain

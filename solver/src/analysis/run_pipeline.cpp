@@ -1,0 +1,264 @@
+#include "plystrain/solver/run_pipeline.hpp"
+
+#include "plystrain/mesh/gmsh_session.hpp"
+#include "plystrain/mesh/mesh_error.hpp"
+#include "plystrain/mesh/quality.hpp"
+#include "plystrain/mesh/stack_mesher.hpp"
+#include "plystrain/solver/atomic_file.hpp"
+#include "plystrain/solver/case_writer.hpp"
+#include "plystrain/solver/field_writer.hpp"
+#include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/solver/results_writers.hpp"
+#include "plystrain/solver/stack_analysis.hpp"
+#include "plystrain/solver/stack_from_case.hpp"
+
+#include <chrono>
+#include <cinttypes>
+#include <cstdio>
+#include <sstream>
+
+namespace plystrain {
+
+namespace {
+
+using Clock = std::chrono::steady_clock;
+
+double seconds_since(Clock::time_point start) {
+  return std::chrono::duration<double>(Clock::now() - start).count();
+}
+
+std::string format(const char* pattern, double a, double b = 0.0, double c = 0.0) {
+  char buffer[256];
+  std::snprintf(buffer, sizeof buffer, pattern, a, b, c);
+  return buffer;
+}
+
+// The solver log: kept in memory and rewritten whole after every increment,
+// so log.txt always holds everything up to the last converged state.
+class RunLog {
+ public:
+  explicit RunLog(std::filesystem::path path) : path_(std::move(path)) {}
+  void line(const std::string& text) { text_ += text + "\n"; }
+  void flush() const { write_file_atomically(path_, text_); }
+
+ private:
+  std::filesystem::path path_;
+  std::string text_;
+};
+
+mesh::Mesh mesh_case(const CaseSpec& spec, RunLog& log, MeshFigures& figures) {
+  mesh::Mesh grid;
+  mesh::MeshQuality quality;
+  const Clock::time_point start = Clock::now();
+  try {
+    mesh::GmshSession session;
+    grid = mesh::build_stack_mesh(session, stack_from_case(spec));
+    quality = mesh::measure_quality(grid);
+  } catch (const mesh::MeshError& error) {
+    throw input_error_from_mesh_error(error, spec);
+  }
+  figures.nodes = grid.node_count();
+  figures.elements = grid.cell_count();
+  figures.min_quality = quality.min_scaled_jacobian();
+  log.line("mesh: " + std::to_string(figures.nodes) + " nodes, " +
+           std::to_string(figures.elements) + " cells, min scaled Jacobian " +
+           format("%.3f", figures.min_quality) + format(", %.2f s", seconds_since(start)));
+  for (const mesh::LayerQuality& layer : quality.layers) {
+    log.line("  layer " + layer.layer + ": " + std::to_string(layer.cells) + " cells" +
+             format(", min scaled Jacobian %.3f, max aspect ratio %.1f",
+                    layer.min_scaled_jacobian, layer.max_aspect_ratio));
+  }
+  return grid;
+}
+
+std::vector<std::string> model_cautions(const CaseSpec& spec) {
+  std::vector<std::string> cautions;
+  for (const LayerSpec& layer : spec.layers) {
+    const materials::MaterialRecord* record = spec.library.find(layer.material.value);
+    if (record == nullptr) {
+      continue;
+    }
+    if (record->law.kind == materials::ModelKind::linear_elastic) {
+      cautions.push_back("layer " + layer.name.value +
+                         ": the linear-elastic law is meant for small strains only");
+    }
+    if (record->basis == "from-memory" || record->basis == "demo") {
+      cautions.push_back("layer " + layer.name.value + ": material \"" + record->key +
+                         "\" rests on " + record->basis +
+                         " values; its margin is indicative only");
+    }
+  }
+  for (const DefectSpec& defect : spec.defects) {
+    if (defect.kind.value == DefectKind::delamination) {
+      cautions.push_back(
+          "delaminated faces are modelled as free surfaces without contact; the run checks "
+          "afterwards that they did not pass through each other");
+      break;
+    }
+  }
+  return cautions;
+}
+
+}  // namespace
+
+std::string case_hash(const std::string& case_text) {
+  // FNV-1a, 64 bit: a stamp to tell runs of different cases apart, not a
+  // cryptographic digest.
+  std::uint64_t hash = 14695981039346656037ull;
+  for (const unsigned char c : case_text) {
+    hash ^= c;
+    hash *= 1099511628211ull;
+  }
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%016" PRIx64, hash);
+  return buffer;
+}
+
+RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
+  const Clock::time_point start = Clock::now();
+  const auto say = [&](const std::string& text) {
+    if (options.progress) {
+      options.progress(text);
+    }
+  };
+  std::filesystem::create_directories(options.out);
+  RunLog log(options.out / "log.txt");
+  const OutputUnit unit{unit_name(spec.units.value), micrometres_per(spec.units.value)};
+
+  const std::string case_text = write_case_toml(spec);
+  write_file_atomically(options.out / "case.toml", case_text);
+
+  RunResults run;
+  run.tool_version = PLYSTRAIN_VERSION;
+  run.case_file = spec.source.filename().string();
+  run.case_hash = case_hash(case_text);
+  run.title = spec.title.value;
+  run.shape = shape_name(spec.geometry.shape.value);
+  run.load = load_kind_name(spec.load.kind.value);
+  run.lateral = lateral_text(spec);
+  run.cautions = model_cautions(spec);
+  log.line("plystrain " + run.tool_version + ", case " + spec.source.string() + " (hash " +
+           run.case_hash + ")");
+
+  mesh::Mesh grid = mesh_case(spec, log, run.mesh);
+  std::vector<LoadCase> load_cases = build_load_cases(spec, grid);
+  say("mesh: " + std::to_string(run.mesh.nodes) + " nodes, " + std::to_string(run.mesh.elements) +
+      " cells");
+
+  std::optional<FieldSeriesWriter> fields;
+  if (spec.report.fields.value) {
+    fields.emplace(options.out, grid, unit.length_scale);
+  }
+
+  std::vector<std::vector<LayerResult>> evaluations;
+  run.completed = true;
+  for (std::size_t index = 0; index < load_cases.size(); ++index) {
+    LoadCase& load_case = load_cases[index];
+    load_case.definition.threads = options.threads;
+    const std::string prefix = load_case.label.empty() ? "" : load_case.label + ": ";
+    solver::Model model(grid, load_case.definition);
+    run.mesh.unknowns = model.size();
+    for (const std::string& warning : model.warnings()) {
+      log.line("model: " + warning);
+      run.cautions.push_back(warning);
+    }
+    log.line(prefix + "model " + solver::kinematics_name(load_case.definition.kinematics) + ", " +
+             std::to_string(model.size()) + " unknowns");
+
+    solver::DirectSparseSolver linear_solver;
+    load_case.stepper.newton.symmetry = model.tangent_is_symmetric()
+                                            ? solver::MatrixSymmetry::symmetric
+                                            : solver::MatrixSymmetry::unsymmetric;
+    // Time in the field series: the run index plus the load factor, so the
+    // slider plays each bend radius in turn.
+    const double time_offset = static_cast<double>(index);
+    solver::LoadStepperCallbacks callbacks;
+    callbacks.on_iteration = [&](int attempt, const solver::NewtonIterationRecord& record) {
+      std::ostringstream line;
+      line << "  attempt " << attempt << ", iteration " << record.iteration << ": residual "
+           << record.residual_norm << ", increment " << record.increment_norm << ", step "
+           << record.line_search_factor;
+      log.line(line.str());
+    };
+    callbacks.on_failure = [&](const solver::FailedAttempt& failure) {
+      std::ostringstream line;
+      line << prefix << "increment of " << failure.increment << " failed ("
+           << solver::status_name(failure.status) << (failure.detail.empty() ? "" : ": ")
+           << failure.detail << "); next " << failure.next_increment;
+      log.line(line.str());
+      say(line.str());
+      ++run.solver.cutbacks;
+    };
+    callbacks.on_increment = [&](const solver::ConvergedIncrement& increment) {
+      std::ostringstream line;
+      line << prefix << "increment " << increment.index << ": load factor "
+           << format("%.4f", increment.load_factor) << ", " << increment.newton_iterations
+           << " Newton iterations, residual " << format("%.2e", increment.residual_norm);
+      log.line(line.str());
+      say(line.str());
+      if (fields && increment.q.size() > 0) {
+        const solver::PointResults points =
+            solver::evaluate_points(model, increment.q, increment.load_factor);
+        if (points.status.ok()) {
+          FieldSnapshot snapshot =
+              make_field_snapshot(spec, model, points, increment.q, increment.load_factor);
+          snapshot.load_factor = time_offset + increment.load_factor;
+          fields->write_increment(snapshot);
+        }
+      }
+      log.flush();
+      return true;
+    };
+
+    const Eigen::VectorXd q_start = Eigen::VectorXd::Zero(model.size());
+    const solver::LoadPathResult path =
+        solver::solve_load_path(model, linear_solver, q_start, load_case.stepper, callbacks);
+    run.solver.increments += static_cast<int>(path.increments.size());
+    run.solver.newton_iterations += path.newton_iterations;
+
+    const solver::PointResults points = solver::evaluate_points(model, path.q, path.load_factor);
+    if (!points.status.ok()) {
+      throw std::runtime_error("the last converged state could not be evaluated: " +
+                               points.status.detail);
+    }
+    std::vector<LayerResult> layers = evaluate_layers(spec, points);
+    for (std::size_t i = 0; i < layers.size(); ++i) {
+      log.line(prefix + "layer " + layers[i].name +
+               format(": peak %.6g (raw integration-point peak %.6g), far field %.6g",
+                      layers[i].peak_strain, layers[i].raw_peak_strain,
+                      layers[i].far_field_strain));
+    }
+    evaluations.push_back(std::move(layers));
+    if (spec.report.profiles.value) {
+      const std::string name = index == 0 ? std::string("profiles.csv")
+                                          : "profiles-" + std::to_string(index + 1) + ".csv";
+      write_profiles_csv(options.out / name, sample_profiles(spec, points), unit);
+    }
+
+    if (!path.completed()) {
+      run.completed = false;
+      run.load_reached = path.load_factor;
+      run.message = prefix + "stopped at load factor " + format("%.4f", path.load_factor) +
+                    ": " + path.reason;
+      log.line(run.message);
+      say(run.message);
+      break;
+    }
+    run.load_reached = path.load_factor;
+  }
+
+  run.layers = envelope(evaluations);
+  run.solver.seconds = seconds_since(start);
+  log.line(format("finished in %.2f s", run.solver.seconds));
+
+  RunOutcome outcome;
+  outcome.table = format_results_table(run, unit);
+  write_results_json(options.out / "results.json", run, unit);
+  write_summary_text(options.out / "summary.txt", run, unit);
+  log.flush();
+  outcome.results = std::move(run);
+  outcome.out = options.out;
+  return outcome;
+}
+
+}  // namespace plystrain
