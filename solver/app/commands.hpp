@@ -27,5 +27,6 @@ Command add_materials_command(CLI::App& app);
 Command add_reference_command(CLI::App& app);
 Command add_mesh_command(CLI::App& app);
 Command add_run_command(CLI::App& app);
+Command add_compare_command(CLI::App& app);
 
 }  // namespace plystrain::cli

@@ -27,6 +27,7 @@ int main(int argc, char** argv) {
       add_reference_command(app),
       add_mesh_command(app),
       add_run_command(app),
+      add_compare_command(app),
   };
 
   try {

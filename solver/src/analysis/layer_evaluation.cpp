@@ -44,22 +44,37 @@ const solver::PointResult* nearest_point(const solver::PointResults& points, int
 
 }  // namespace
 
-double far_zone_start(const CaseSpec& spec) {
+double evaluated_extent(const CaseSpec& spec) {
   const double width = spec.geometry.width.value;
+  // The whole width: the loaded edges are consistent with the homogeneous
+  // (stretch) or pure-bending state, so they add no disturbance of their own.
+  return width;
+}
+
+double far_zone_start(const CaseSpec& spec) {
+  const double extent = evaluated_extent(spec);
   double start = 0.0;
   for (const DefectSpec& defect : spec.defects) {
     const double outer_edge = std::abs(defect.at.value) + 0.5 * defect.size.value;
     start = std::max(start, outer_edge + spec.mesh.grade_over.value);
   }
   // Without room beyond the defects, or without defects, the outer tenth.
-  const double outer_tenth = 0.9 * width;
+  const double outer_tenth = 0.9 * extent;
   return (start <= 0.0 || start > outer_tenth) ? outer_tenth : start;
 }
 
 std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
-                                         const solver::PointResults& points) {
+                                         const solver::PointResults& all_points) {
   const double radius = spec.report.averaging_radius.value;
   const double far_start = far_zone_start(spec);
+  const double extent = evaluated_extent(spec);
+  solver::PointResults points;
+  points.status = all_points.status;
+  for (const solver::PointResult& point : all_points.points) {
+    if (std::abs(point.position.x()) <= extent) {
+      points.points.push_back(point);
+    }
+  }
   const auto max_strain = [](const solver::PointResult& point) {
     return point.max_principal_strain;
   };

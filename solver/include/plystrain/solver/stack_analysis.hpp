@@ -41,7 +41,11 @@ inline constexpr const char* anchor_node_set = "anchor";
 [[nodiscard]] std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
                                                        const solver::PointResults& points);
 
-// Reference x (or r) from which the far zone runs to the outer edge: beyond
+// How far along x (or r) the evaluation reaches (the whole width: the loaded
+// edges are consistent with the homogeneous or pure-bending state).
+[[nodiscard]] double evaluated_extent(const CaseSpec& spec);
+
+// Reference x (or r) from which the far zone runs to the evaluated extent: beyond
 // every defect by at least grade_over, or the outer tenth of the width when
 // the defects leave no room.
 [[nodiscard]] double far_zone_start(const CaseSpec& spec);

@@ -1,0 +1,146 @@
+// End-to-end runs of small cases through `plystrain run`, checked against
+// closed forms outside the project.
+#include "cli/cli_support.hpp"
+
+#include "plystrain/materials/law.hpp"
+#include "plystrain/solver/material_library.hpp"
+
+#include <catch2/catch.hpp>
+#include <nlohmann/json.hpp>
+#include <Eigen/LU>
+
+#include <cmath>
+#include <filesystem>
+#include <functional>
+
+using plystrain::test::data_path;
+using plystrain::test::run_plystrain;
+
+namespace {
+
+nlohmann::json run_case(const std::string& case_file, const std::string& name) {
+  const std::filesystem::path out = plystrain::test::fresh_output_dir(name);
+  const auto result =
+      run_plystrain("run '" + data_path(case_file) + "' --out '" + out.string() + "'");
+  INFO(result.out << "\n" << result.err);
+  REQUIRE(result.exit_code == 0);
+  for (const char* file : {"results.json", "summary.txt", "profiles.csv", "fields.pvd",
+                           "log.txt", "case.toml"}) {
+    CHECK(std::filesystem::exists(out / file));
+  }
+  nlohmann::json json = nlohmann::json::parse(plystrain::test::read_text(out / "results.json"));
+  std::filesystem::remove_all(out);
+  return json;
+}
+
+// The free stretch of a homogeneous state: solves P_22(F) = 0 for the
+// through-thickness stretch (and P_33 = 0 when `third_free`), by Newton on a
+// central-difference slope. An independent pointwise solution of the same law.
+Eigen::Matrix3d homogeneous_state(const plystrain::materials::LawParameters& law, double stretch,
+                                  double third, bool third_free) {
+  Eigen::Matrix3d F = Eigen::Matrix3d::Identity();
+  F(0, 0) = stretch;
+  F(2, 2) = third;
+  const auto lateral = [&](const Eigen::Matrix3d& G) {
+    const plystrain::materials::PointResponse r = plystrain::materials::evaluate(law, G);
+    return Eigen::Vector2d(r.first_piola(1, 1), third_free ? r.first_piola(2, 2) : 0.0);
+  };
+  for (int iteration = 0; iteration < 50; ++iteration) {
+    const Eigen::Vector2d residual = lateral(F);
+    if (residual.norm() < 1e-13 * law.shear_modulus + 1e-300) {
+      break;
+    }
+    Eigen::Matrix2d jacobian = Eigen::Matrix2d::Identity();
+    const double h = 1e-7;
+    for (int j = 0; j < (third_free ? 2 : 1); ++j) {
+      const int index = j == 0 ? 1 : 2;
+      Eigen::Matrix3d plus = F;
+      Eigen::Matrix3d minus = F;
+      plus(index, index) += h;
+      minus(index, index) -= h;
+      jacobian.col(j) = (lateral(plus) - lateral(minus)) / (2 * h);
+    }
+    if (!third_free) {
+      jacobian(1, 1) = 1.0;
+    }
+    const Eigen::Vector2d step = jacobian.fullPivLu().solve(residual);
+    F(1, 1) -= step(0);
+    if (third_free) {
+      F(2, 2) -= step(1);
+    }
+  }
+  return F;
+}
+
+double cauchy_xx(const plystrain::materials::LawParameters& law, const Eigen::Matrix3d& F) {
+  const Eigen::Matrix3d P = plystrain::materials::evaluate(law, F).first_piola;
+  const Eigen::Matrix3d sigma = P * F.transpose() / F.determinant();
+  return sigma(0, 0);
+}
+
+const nlohmann::json& only_layer(const nlohmann::json& results) {
+  REQUIRE(results["layers"].size() == 1);
+  return results["layers"][0];
+}
+
+}  // namespace
+
+TEST_CASE("homogeneous strip, lateral free: uniaxial stretch", "[cli][run]") {
+  const nlohmann::json results = run_case("cli/homogeneous-strip-free.toml", "uniaxial");
+  const nlohmann::json& sheet = only_layer(results);
+  CHECK(results["completed"] == true);
+  CHECK(results["load_reached"].get<double>() == Approx(1.0));
+  // A homogeneous layer: the peak is the applied strain and nothing concentrates.
+  CHECK(sheet["peak_strain"].get<double>() == Approx(0.1).epsilon(1e-6));
+  CHECK(sheet["concentration"].get<double>() == Approx(1.0).epsilon(1e-6));
+
+  const auto library = plystrain::load_builtin_library();
+  const auto& law = library.find("demo-elastomer")->law;
+  const double lambda = 1.1;
+  // The same law solved pointwise with traction-free lateral faces.
+  const Eigen::Matrix3d F = homogeneous_state(law, lambda, 1.0, true);
+  CHECK(sheet["peak_stress"].get<double>() == Approx(cauchy_xx(law, F)).epsilon(1e-6));
+  // Incompressible neo-Hookean uniaxial Cauchy stress mu (lambda^2 - 1/lambda)
+  // (Ogden, Non-linear Elastic Deformations, 1984); kappa/mu = 500 here, so
+  // within a few mu/kappa.
+  const double mu = plystrain::materials::initial_shear_modulus(law);
+  const double kappa = plystrain::materials::initial_bulk_modulus(law);
+  const double closed_form = mu * (lambda * lambda - 1.0 / lambda);
+  CHECK(std::abs(sheet["peak_stress"].get<double>() / closed_form - 1.0) < 3.0 * mu / kappa);
+}
+
+TEST_CASE("homogeneous strip, lateral held: planar (pure-shear) stretch", "[cli][run]") {
+  const nlohmann::json results = run_case("cli/homogeneous-strip-held.toml", "planar");
+  const nlohmann::json& sheet = only_layer(results);
+  CHECK(sheet["peak_strain"].get<double>() == Approx(0.1).epsilon(1e-6));
+  CHECK(sheet["concentration"].get<double>() == Approx(1.0).epsilon(1e-6));
+  const auto library = plystrain::load_builtin_library();
+  const auto& law = library.find("demo-elastomer")->law;
+  const double lambda = 1.1;
+  const Eigen::Matrix3d F = homogeneous_state(law, lambda, 1.0, false);
+  // The largest principal stress is sigma_xx here (sigma_33 > 0 is smaller).
+  CHECK(sheet["peak_stress"].get<double>() == Approx(cauchy_xx(law, F)).epsilon(1e-6));
+  // Incompressible pure shear: sigma_xx = mu (lambda^2 - lambda^-2) (Ogden 1984).
+  const double mu = plystrain::materials::initial_shear_modulus(law);
+  const double kappa = plystrain::materials::initial_bulk_modulus(law);
+  const double closed_form = mu * (lambda * lambda - 1.0 / (lambda * lambda));
+  CHECK(std::abs(sheet["peak_stress"].get<double>() / closed_form - 1.0) < 3.0 * mu / kappa);
+}
+
+TEST_CASE("homogeneous disk: equibiaxial stretch", "[cli][run]") {
+  const nlohmann::json results = run_case("cli/homogeneous-disk.toml", "equibiaxial");
+  const nlohmann::json& sheet = only_layer(results);
+  CHECK(results["model"]["shape"] == "disk");
+  CHECK(sheet["peak_strain"].get<double>() == Approx(0.1).epsilon(1e-6));
+  CHECK(sheet["concentration"].get<double>() == Approx(1.0).epsilon(1e-6));
+  const auto library = plystrain::load_builtin_library();
+  const auto& law = library.find("demo-elastomer")->law;
+  const double lambda = 1.1;
+  const Eigen::Matrix3d F = homogeneous_state(law, lambda, lambda, false);
+  CHECK(sheet["peak_stress"].get<double>() == Approx(cauchy_xx(law, F)).epsilon(1e-6));
+  // Incompressible equibiaxial: sigma = mu (lambda^2 - lambda^-4) (Ogden 1984).
+  const double mu = plystrain::materials::initial_shear_modulus(law);
+  const double kappa = plystrain::materials::initial_bulk_modulus(law);
+  const double closed_form = mu * (lambda * lambda - std::pow(lambda, -4.0));
+  CHECK(std::abs(sheet["peak_stress"].get<double>() / closed_form - 1.0) < 3.0 * mu / kappa);
+}
