@@ -17,18 +17,10 @@
 namespace plystrain::cli {
 
 Command add_compare_command(CLI::App& app) {
-  struct Options {
-    std::string case_path;
-    std::string out;
-    int threads = 0;
-  };
-  auto options = std::make_shared<Options>();
+  auto options = std::make_shared<SolveOptions>();
   CLI::App* command = app.add_subcommand(
       "compare", "Run the case and each of its variants; compare the layers side by side");
-  command->add_option("CASE", options->case_path, "The case file (TOML)")->required();
-  command->add_option("--out", options->out, "Output directory (default: the case's report.out)");
-  command->add_option("--threads", options->threads, "Threads for assembly (default: all cores)")
-      ->check(CLI::NonNegativeNumber);
+  add_solve_options(*command, *options);
   return {command, [options] {
             const CaseSpec base = read_case(options->case_path);
             const std::vector<ResolvedCase> variants = resolve_variants(base);

@@ -11,19 +11,10 @@
 namespace plystrain::cli {
 
 Command add_run_command(CLI::App& app) {
-  struct Options {
-    std::string case_path;
-    std::string out;
-    int threads = 0;
-  };
-  auto options = std::make_shared<Options>();
+  auto options = std::make_shared<SolveOptions>();
   CLI::App* command = app.add_subcommand(
       "run", "Solve a case: per-layer peak strain, concentration, margins and verdicts");
-  command->add_option("CASE", options->case_path, "The case file (TOML)")->required();
-  command->add_option("--out", options->out, "Output directory (default: the case's report.out)");
-  command->add_option("--threads", options->threads,
-                      "Threads for assembly (default: all cores)")
-      ->check(CLI::NonNegativeNumber);
+  add_solve_options(*command, *options);
   return {command, [options] {
             const CaseSpec spec = read_case(options->case_path);
             RunOptions run;

@@ -6,6 +6,7 @@
 
 #include <functional>
 #include <iosfwd>
+#include <string>
 
 namespace plystrain::cli {
 
@@ -21,6 +22,16 @@ struct Command {
   CLI::App* subcommand = nullptr;
   std::function<int()> action;
 };
+
+// The options shared by the commands that solve a case.
+struct SolveOptions {
+  std::string case_path;
+  std::string out;  // empty: the case's report.out
+  int threads = 0;  // 0: the OpenMP default
+};
+
+// Adds CASE, --out and --threads to `command`, bound to `options`.
+void add_solve_options(CLI::App& command, SolveOptions& options);
 
 Command add_check_command(CLI::App& app);
 Command add_materials_command(CLI::App& app);
