@@ -104,3 +104,25 @@ TEST_CASE("mesh writes mesh.msh and mesh.vtu and prints the quality table", "[cl
   CHECK(result.out.find("min scaled Jacobian") != std::string::npos);
   std::filesystem::remove_all(out);
 }
+
+TEST_CASE("every example case meshes without inverted cells", "[cli]") {
+  // `mesh` refuses inverted cells with an error (exit 2), so exit 0 and a
+  // quality table with no non-positive Jacobian mean a valid mesh.
+  const std::filesystem::path cases = std::filesystem::path(PLYSTRAIN_SOURCE_DIR) / "cases";
+  int meshed = 0;
+  for (const auto& entry : std::filesystem::directory_iterator(cases)) {
+    const std::filesystem::path file = entry.path() / "case.toml";
+    if (!std::filesystem::exists(file)) {
+      continue;
+    }
+    const std::filesystem::path out =
+        plystrain::test::fresh_output_dir("mesh-" + entry.path().filename().string());
+    const auto result = run_plystrain("mesh '" + file.string() + "' --out '" + out.string() + "'");
+    INFO(file.string() << "\n" << result.out << result.err);
+    CHECK(result.exit_code == 0);
+    CHECK(std::filesystem::exists(out / "mesh.vtu"));
+    std::filesystem::remove_all(out);
+    ++meshed;
+  }
+  CHECK(meshed >= 4);
+}
