@@ -88,12 +88,6 @@ std::vector<std::string> model_cautions(const CaseSpec& spec) {
                          " values; its margin is indicative only");
     }
   }
-  if (spec.load.kind.value == LoadKind::bend) {
-    cautions.push_back(
-        "bending results are provisional: on a plain bilayer the strain in the interior is "
-        "within about 1 to 2 % of laminate theory, with a spurious rise at the loaded edge; "
-        "compare with the neutral-plane estimate before relying on them");
-  }
   for (const DefectSpec& defect : spec.defects) {
     if (defect.kind.value == DefectKind::delamination) {
       cautions.push_back(
