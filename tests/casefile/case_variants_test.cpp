@@ -69,7 +69,8 @@ TEST_CASE("removing the encapsulant leaves a pinhole empty", "[casefile][variant
 
 TEST_CASE("set changes keys by dotted path, in the case's unit", "[casefile][variants]") {
   const CaseSpec base = good_case("every-key-stretch.toml");
-  const ResolvedCase& thick = named(resolve_variants(base), "thick-film");
+  const std::vector<ResolvedCase> variants = resolve_variants(base);
+  const ResolvedCase& thick = named(variants, "thick-film");
   const CaseSpec& spec = thick.spec;
   CHECK(spec.layers[2].thickness.value == Approx(0.2).epsilon(1e-12));  // 200 nm
   CHECK(spec.layers[2].thickness.given);
@@ -93,7 +94,7 @@ TEST_CASE("derived defaults are recomputed for a variant", "[casefile][variants]
           "geometry.width = 80 }\n";
   const CaseSpec base = read_case_text(text, "derived.toml", test::test_library());
   CHECK(base.mesh.size_near.value == Approx(0.05));
-  const CaseSpec& spec = resolve_variants(base).front().spec;
+  const CaseSpec spec = resolve_variants(base).front().spec;  // a copy: the vector is a temporary
   CHECK(spec.mesh.size_near.value == Approx(0.02));          // thinnest / 2
   CHECK(spec.report.averaging_radius.value == Approx(0.02));  // thinnest / 2
   CHECK(spec.mesh.size_far.value == Approx(2.0));             // width / 40
@@ -106,7 +107,7 @@ TEST_CASE("a variant that changes the load kind drops keys that no longer apply"
   text += "\n[[variant]]\nname = \"bent\"\nset = { \"load.kind\" = \"bend\", \"load.radius\" = "
           "[2000, -2000] }\n";
   const CaseSpec base = read_case_text(text, "kind.toml", test::test_library());
-  const CaseSpec& spec = resolve_variants(base).front().spec;
+  const CaseSpec spec = resolve_variants(base).front().spec;  // a copy: the vector is a temporary
   CHECK(spec.load.kind.value == LoadKind::bend);
   CHECK(spec.load.radius.value == std::vector<double>{2000.0, -2000.0});
   CHECK_FALSE(spec.load.strain.given);
