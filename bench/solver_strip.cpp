@@ -42,12 +42,22 @@ struct Arguments {
   int cells_along = 160;
   solver::FillOrdering ordering = solver::FillOrdering::metis;
   double stretch = 0.05;
+  bool assembly_only = false;
 };
 
 Arguments parse(int argc, char** argv) {
   Arguments arguments;
-  for (int i = 1; i + 1 < argc; i += 2) {
+  for (int i = 1; i < argc; i += 2) {
     const std::string key = argv[i];
+    if (key == "--assembly-only") {
+      arguments.assembly_only = true;
+      --i;
+      continue;
+    }
+    if (i + 1 >= argc) {
+      std::fprintf(stderr, "option %s needs a value\n", key.c_str());
+      std::exit(2);
+    }
     const std::string value = argv[i + 1];
     if (key == "--cells-along") {
       arguments.cells_along = std::stoi(value);
@@ -76,6 +86,36 @@ double peak_rss_mb() {
   rusage usage{};
   getrusage(RUSAGE_SELF, &usage);
   return static_cast<double>(usage.ru_maxrss) / 1024.0;  // kilobytes on Linux
+}
+
+// Median wall time of repeated evaluations at the reference state (no linear
+// solves): the residual alone, and the residual with the tangent.
+int time_assembly(solver::Model& model) {
+  const Eigen::VectorXd q = Eigen::VectorXd::Zero(model.size());
+  Eigen::VectorXd residual;
+  solver::SparseMatrix tangent;
+  auto median_of = [&](bool with_tangent) {
+    std::vector<double> seconds;
+    for (int repeat = 0; repeat < 5; ++repeat) {
+      const auto start = std::chrono::steady_clock::now();
+      const solver::Evaluation result = model.evaluate(q, 0.0, residual, with_tangent ? &tangent : nullptr);
+      if (!result.ok()) {
+        std::fprintf(stderr, "evaluation failed: %s\n", result.detail.c_str());
+        std::exit(1);
+      }
+      seconds.push_back(std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count());
+    }
+    std::sort(seconds.begin(), seconds.end());
+    return seconds[seconds.size() / 2];
+  };
+  (void)model.evaluate(q, 0.0, residual, &tangent);  // the pattern's first fill
+  const double residual_seconds = median_of(false);
+  const double tangent_seconds = median_of(true);
+  std::printf("{\"unknowns\": %d, \"cells\": %d, \"threads\": %d, \"residual_s\": %.4f, "
+              "\"residual_and_tangent_s\": %.4f, \"tangent_nonzeros\": %lld}\n",
+              model.size(), model.mesh().cell_count(), omp_get_max_threads(), residual_seconds, tangent_seconds,
+              static_cast<long long>(tangent.nonZeros()));
+  return 0;
 }
 
 }  // namespace
@@ -108,6 +148,10 @@ int main(int argc, char** argv) {
   solver::Model model(mesh::layered_rectangle(spec), definition);
   const double build_seconds =
       std::chrono::duration<double>(std::chrono::steady_clock::now() - build_start).count();
+
+  if (arguments.assembly_only) {
+    return time_assembly(model);
+  }
 
   solver::LinearSolverOptions linear_options;
   linear_options.ordering = arguments.ordering;

@@ -72,12 +72,6 @@ bool is_principal_stretch_law(ModelKind kind) {
   return kind == ModelKind::ogden || kind == ModelKind::linear_elastic;
 }
 
-PointResponse not_admissible() {
-  PointResponse out;
-  out.admissible = false;
-  return out;
-}
-
 }  // namespace
 }  // namespace detail
 
@@ -89,23 +83,26 @@ double initial_bulk_modulus(const LawParameters& law) {
   return detail::resolved_moduli(law).bulk_modulus;
 }
 
-PointResponse evaluate_isochoric(const LawParameters& law, const Eigen::Matrix3d& F) {
-  if (!(F.determinant() > 0.0)) {
-    return detail::not_admissible();
-  }
+PointResponse evaluate_isochoric(const LawParameters& law, const Eigen::Matrix3d& F, Need need) {
+  // One named result on every path, so that it is built in the caller's
+  // storage (the 9x9 tangent is most of its size).
   PointResponse out;
+  if (!(F.determinant() > 0.0)) {
+    out.admissible = false;
+    return out;
+  }
   if (detail::is_principal_stretch_law(law.kind)) {
-    detail::isochoric_principal_stretch_law(law, F, out);
+    detail::isochoric_principal_stretch_law(law, F, need, out);
   } else {
-    detail::isochoric_invariant_law(law, F, out);
+    detail::isochoric_invariant_law(law, F, need, out);
   }
   return out;
 }
 
-PointResponse evaluate(const LawParameters& law, const Eigen::Matrix3d& F) {
-  PointResponse out = evaluate_isochoric(law, F);
+PointResponse evaluate(const LawParameters& law, const Eigen::Matrix3d& F, Need need) {
+  PointResponse out = evaluate_isochoric(law, F, need);
   if (out.admissible) {
-    detail::add_volumetric(initial_bulk_modulus(law), F, out);
+    detail::add_volumetric(initial_bulk_modulus(law), F, need, out);
   }
   return out;
 }

@@ -59,6 +59,48 @@ InvariantEnergy invariant_energy(const LawParameters& law, double i1bar, double 
   return e;
 }
 
+// The row-major 9-vector of a 3x3 matrix, in the tangent's index order.
+Eigen::Matrix<double, 9, 1> flat(const Eigen::Matrix3d& m) {
+  Eigen::Matrix<double, 9, 1> v;
+  for (int i = 0; i < 3; ++i) {
+    for (int j = 0; j < 3; ++j) {
+      v(tangent_index(i, j)) = m(i, j);
+    }
+  }
+  return v;
+}
+
+// dP/dF for a law in I1bar alone (neo-Hookean, Yeoh, Gent), as whole outer
+// products: the same derivative as the column-by-column loop below with the
+// I2 terms zero, written so that it vectorises (these laws are the common
+// case and the tangent is most of their cost):
+//   d g1_ij / dF_kl = 2a [ d_ik d_jl - 2/3 (F_ij G_kl + G_ij F_kl)
+//                          + 2/9 I1 G_ij G_kl + 1/3 I1 G_il G_kj ]
+//   dP = psi_1 d g1 + psi_11 g1 (x) g1
+void first_invariant_tangent(const Eigen::Matrix3d& F, const Eigen::Matrix3d& G, const Eigen::Matrix3d& g1,
+                             double a, double i1, double d1, double d11, Matrix9d& tangent) {
+  const Eigen::Matrix<double, 9, 1> f = flat(F);
+  const Eigen::Matrix<double, 9, 1> g = flat(G);
+  const Eigen::Matrix<double, 9, 1> h = flat(g1);
+  const double scale = 2.0 * a * d1;
+  tangent.noalias() = (-2.0 / 3.0 * scale) * (f * g.transpose() + g * f.transpose());
+  tangent.noalias() += (2.0 / 9.0 * scale * i1) * (g * g.transpose());
+  if (d11 != 0.0) {
+    tangent.noalias() += d11 * (h * h.transpose());
+  }
+  const double swap = scale * i1 / 3.0;
+  for (int i = 0; i < 3; ++i) {
+    for (int j = 0; j < 3; ++j) {
+      for (int k = 0; k < 3; ++k) {
+        for (int l = 0; l < 3; ++l) {
+          tangent(tangent_index(i, j), tangent_index(k, l)) += swap * G(i, l) * G(k, j);
+        }
+      }
+    }
+  }
+  tangent.diagonal().array() += scale;
+}
+
 }  // namespace
 
 // With a = J^(-2/3), G = F^-T, C = F^T F, I1 = tr C, I2 = (I1^2 - C:C)/2:
@@ -68,7 +110,7 @@ InvariantEnergy invariant_energy(const LawParameters& law, double i1bar, double 
 // The tangent is built one column at a time: column (k, l) is the
 // directional derivative of P along E = e_k e_l^T, using
 //   dJ/J = G:E, dG = -G E^T G, dI1 = 2 F:E, dC = E^T F + F^T E.
-void isochoric_invariant_law(const LawParameters& law, const Eigen::Matrix3d& F,
+void isochoric_invariant_law(const LawParameters& law, const Eigen::Matrix3d& F, Need need,
                              PointResponse& out) {
   const double J = F.determinant();
   const Eigen::Matrix3d G = F.inverse().transpose();
@@ -101,6 +143,13 @@ void isochoric_invariant_law(const LawParameters& law, const Eigen::Matrix3d& F,
     out.first_piola.noalias() += e.d2 * g2;
   }
   out.admissible = true;
+  if (need == Need::stress_only) {
+    return;
+  }
+  if (!uses_i2) {
+    first_invariant_tangent(F, G, g1, a, i1, e.d1, e.d11, out.tangent);
+    return;
+  }
 
   for (int k = 0; k < 3; ++k) {
     for (int l = 0; l < 3; ++l) {

@@ -13,13 +13,14 @@ namespace plystrain::materials::detail {
 
 // Isochoric parts. Each writes energy, P and dP/dF of W_iso(J^(-1/3) F) and
 // sets admissible. F must have det F > 0 (checked by the caller).
-void isochoric_invariant_law(const LawParameters& law, const Eigen::Matrix3d& F,
+// With Need::stress_only the tangent is not computed (left as it was).
+void isochoric_invariant_law(const LawParameters& law, const Eigen::Matrix3d& F, Need need,
                              PointResponse& out);
-void isochoric_principal_stretch_law(const LawParameters& law, const Eigen::Matrix3d& F,
+void isochoric_principal_stretch_law(const LawParameters& law, const Eigen::Matrix3d& F, Need need,
                                      PointResponse& out);
 
 // The volumetric part added to P and dP/dF: P_vol = U'(J) J F^-T.
-void add_volumetric(double bulk_modulus, const Eigen::Matrix3d& F, PointResponse& out);
+void add_volumetric(double bulk_modulus, const Eigen::Matrix3d& F, Need need, PointResponse& out);
 
 [[nodiscard]] inline int tangent_index(int i, int j) { return 3 * i + j; }
 

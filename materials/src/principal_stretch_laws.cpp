@@ -54,7 +54,7 @@ ScalarTerms stretch_function(const LawParameters& law, double y) {
 
 }  // namespace
 
-void isochoric_principal_stretch_law(const LawParameters& law, const Eigen::Matrix3d& F,
+void isochoric_principal_stretch_law(const LawParameters& law, const Eigen::Matrix3d& F, Need need,
                                      PointResponse& out) {
   const Eigen::Matrix3d C = F.transpose() * F;
   const Eigen::SelfAdjointEigenSolver<Eigen::Matrix3d> eigen(C);
@@ -113,6 +113,9 @@ void isochoric_principal_stretch_law(const LawParameters& law, const Eigen::Matr
   out.energy = energy;
   out.first_piola.noalias() = F * S;
   out.admissible = true;
+  if (need == Need::stress_only) {
+    return;
+  }
 
   const Eigen::Matrix3d FQ = F * Q;  // dC' = Q^T dC Q = (F Q)^T E Q + Q^T E^T (F Q)
   for (int k = 0; k < 3; ++k) {

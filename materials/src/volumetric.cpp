@@ -37,13 +37,16 @@ namespace detail {
 // P_vol = p J F^-T with p = U'(J). Its derivative, G = F^-T:
 //   dP_ij/dF_kl = J (U'' J + p) G_ij G_kl - p J G_il G_kj
 // (d J = J G : dF and d G = -G dF^T G).
-void add_volumetric(double bulk_modulus, const Eigen::Matrix3d& F, PointResponse& out) {
+void add_volumetric(double bulk_modulus, const Eigen::Matrix3d& F, Need need, PointResponse& out) {
   const double J = F.determinant();
   const double pressure = 0.5 * bulk_modulus * (J - 1.0 / J);
   const double stiffness = 0.5 * bulk_modulus * (1.0 + 1.0 / (J * J));
   const Eigen::Matrix3d G = F.inverse().transpose();
   out.energy += 0.25 * bulk_modulus * (J * J - 1.0 - 2.0 * std::log(J));
   out.first_piola.noalias() += (pressure * J) * G;
+  if (need == Need::stress_only) {
+    return;
+  }
   const double outer = J * (stiffness * J + pressure);
   const double swap = pressure * J;
   for (int i = 0; i < 3; ++i) {

@@ -70,8 +70,10 @@ AssemblyPattern::AssemblyPattern(const ConstraintSet& constraints,
     const int m = static_cast<int>(block.size());
     if (plan.selection) {
       plan.begin = static_cast<int>(slots_.size());
+      plan.columns = static_cast<int>(columns_.size());
       for (int b = 0; b < m; ++b) {
         const std::span<const AffineTerm> rb = constraints.reduced_row(block[static_cast<std::size_t>(b)]);
+        columns_.push_back(rb.empty() ? -1 : rb[0].index);
         for (int a = 0; a < m; ++a) {
           const std::span<const AffineTerm> ra = constraints.reduced_row(block[static_cast<std::size_t>(a)]);
           slots_.push_back(ra.empty() || rb.empty() ? -1 : slot_of(ra[0].index, rb[0].index));
@@ -84,7 +86,7 @@ AssemblyPattern::AssemblyPattern(const ConstraintSet& constraints,
         for (const AffineTerm& tb : constraints.reduced_row(block[static_cast<std::size_t>(b)])) {
           for (int a = 0; a < m; ++a) {
             for (const AffineTerm& ta : constraints.reduced_row(block[static_cast<std::size_t>(a)])) {
-              general_.push_back({a + m * b, slot_of(ta.index, tb.index), ta.coefficient * tb.coefficient});
+              general_.push_back({a + m * b, slot_of(ta.index, tb.index), tb.index, ta.coefficient * tb.coefficient});
             }
           }
         }
@@ -95,7 +97,7 @@ AssemblyPattern::AssemblyPattern(const ConstraintSet& constraints,
   }
 }
 
-void AssemblyPattern::prepare(SparseMatrix& matrix) const {
+void AssemblyPattern::adopt_pattern(SparseMatrix& matrix) const {
   const bool same =
       matrix.rows() == pattern_.rows() && matrix.cols() == pattern_.cols() &&
       matrix.isCompressed() && matrix.nonZeros() == pattern_.nonZeros() &&
@@ -106,31 +108,49 @@ void AssemblyPattern::prepare(SparseMatrix& matrix) const {
   if (!same) {
     matrix = pattern_;
   }
+}
+
+void AssemblyPattern::prepare(SparseMatrix& matrix) const {
+  adopt_pattern(matrix);
   std::fill(matrix.valuePtr(), matrix.valuePtr() + matrix.nonZeros(), 0.0);
 }
 
-void AssemblyPattern::scatter_matrix(int block, const double* k, int n, double* values) const {
+void AssemblyPattern::scatter_matrix(int block, const double* k, int n, double* values,
+                                     ScatterShare share) const {
   const Plan& plan = plans_[static_cast<std::size_t>(block)];
   if (plan.selection) {
     const int* slot = slots_.data() + plan.begin;
-    const int entries = n * n;
-    for (int i = 0; i < entries; ++i) {
-      if (slot[i] >= 0) {
-        values[slot[i]] += k[i];
+    const int* column = columns_.data() + plan.columns;
+    for (int b = 0; b < n; ++b) {
+      if (column[b] < 0 || !share.owns(column[b])) {
+        continue;
+      }
+      const int* slot_b = slot + n * b;
+      const double* k_b = k + n * b;
+      for (int a = 0; a < n; ++a) {
+        if (slot_b[a] >= 0) {
+          values[slot_b[a]] += k_b[a];
+        }
       }
     }
     return;
   }
   for (int i = plan.begin; i < plan.end; ++i) {
     const GeneralEntry& e = general_[static_cast<std::size_t>(i)];
-    values[e.slot] += e.coefficient * k[e.local];
+    if (share.owns(e.column)) {
+      values[e.slot] += e.coefficient * k[e.local];
+    }
   }
 }
 
-void AssemblyPattern::scatter_vector(int block, const double* r, int n, Eigen::VectorXd& variables) const {
+void AssemblyPattern::scatter_vector(int block, const double* r, int n, Eigen::VectorXd& variables,
+                                     ScatterShare share) const {
   const std::vector<int>& vars = blocks_[static_cast<std::size_t>(block)];
   for (int a = 0; a < n; ++a) {
-    variables(vars[static_cast<std::size_t>(a)]) += r[a];
+    const int v = vars[static_cast<std::size_t>(a)];
+    if (share.owns(v)) {
+      variables(v) += r[a];
+    }
   }
 }
 
@@ -138,6 +158,6 @@ std::span<const int> AssemblyPattern::block_variables(int block) const {
   return blocks_[static_cast<std::size_t>(block)];
 }
 
-std::size_t AssemblyPattern::slot_count() const { return slots_.size() + general_.size(); }
+std::size_t AssemblyPattern::slot_count() const { return slots_.size() + columns_.size() + general_.size(); }
 
 }  // namespace plystrain::solver

@@ -11,12 +11,13 @@
 namespace plystrain::solver {
 namespace {
 
-// Cells are evaluated in parallel in chunks into per-cell buffers and then
-// scattered serially in cell order: the sums are formed in the same order
+// Cells are evaluated in parallel in chunks into per-cell buffers; then each
+// thread adds the whole chunk into the matrix columns and variables it owns
+// (ScatterShare), in cell order. Every sum is formed in the same order
 // whatever the thread count, so results are bitwise identical. (Colouring
 // cannot give that here: the out-of-plane unknown of generalized plane strain
 // and multi-point constraints couple every cell.)
-constexpr int chunk_size = 256;
+constexpr int chunk_size = 512;
 
 Signal signal_of(const ScaledValue& value) {
   return [value](double load_factor) { return value.at(load_factor); };
@@ -52,6 +53,28 @@ int require_component(int component, const std::string& what) {
                                 std::to_string(component));
   }
   return component;
+}
+
+Evaluation cell_failure(int cell, const KernelOutcome& outcome) {
+  Evaluation failed;
+  std::ostringstream detail;
+  detail << cell_where(cell, outcome.point);
+  switch (outcome.status) {
+    case KernelStatus::inverted:
+      failed.status = EvaluationStatus::inverted_element;
+      detail << ": J = " << outcome.jacobian;
+      break;
+    case KernelStatus::material_failure:
+      failed.status = EvaluationStatus::material_failure;
+      detail << ": the law is not defined there (J = " << outcome.jacobian << ")";
+      break;
+    default:
+      failed.status = EvaluationStatus::non_finite;
+      detail << ": non-finite force or stiffness";
+      break;
+  }
+  failed.detail = detail.str();
+  return failed;
 }
 
 }  // namespace
@@ -292,58 +315,70 @@ void ModelImpl::gather_cell(int cell, const Eigen::VectorXd& z, CellCoordinates&
 
 Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_factor,
                                       Eigen::VectorXd& forces, SparseMatrix* tangent) const {
-  forces = Eigen::VectorXd::Zero(variable_count);
+  forces.resize(variable_count);
   double* values = nullptr;
+  Eigen::Index value_count = 0;
   if (tangent) {
-    assembly.prepare(*tangent);
+    assembly.adopt_pattern(*tangent);
     values = tangent->valuePtr();
+    value_count = tangent->nonZeros();
   }
   const int cells = mesh.cell_count();
   std::vector<CellVector> residuals(static_cast<std::size_t>(std::min(chunk_size, cells)));
   std::vector<CellMatrix> matrices(tangent ? residuals.size() : 0);
   std::vector<KernelOutcome> outcomes(residuals.size());
-  const int thread_count = threads();
-  for (int start = 0; start < cells; start += chunk_size) {
-    const int end = std::min(cells, start + chunk_size);
-#pragma omp parallel for schedule(static) num_threads(thread_count)
-    for (int c = start; c < end; ++c) {
-      const std::size_t slot = static_cast<std::size_t>(c - start);
-      CellCoordinates X;
-      CellVector dofs;
-      gather_cell(c, z, X, dofs);
-      outcomes[slot] = cell_internal_forces(settings[static_cast<std::size_t>(c)], X, dofs,
-                                            residuals[slot], tangent ? &matrices[slot] : nullptr);
+  int failed_cell = -1;
+#pragma omp parallel num_threads(threads())
+  {
+    const ScatterShare share{omp_get_thread_num(), omp_get_num_threads()};
+    // Zeroing in parallel too: at 200k unknowns the values are 50 MB.
+#pragma omp for schedule(static) nowait
+    for (Eigen::Index i = 0; i < value_count; ++i) {
+      values[i] = 0.0;
     }
-    for (int c = start; c < end; ++c) {
-      const std::size_t slot = static_cast<std::size_t>(c - start);
-      const KernelOutcome& outcome = outcomes[slot];
-      if (outcome.status != KernelStatus::ok) {
-        Evaluation failed;
-        std::ostringstream detail;
-        detail << cell_where(c, outcome.point);
-        switch (outcome.status) {
-          case KernelStatus::inverted:
-            failed.status = EvaluationStatus::inverted_element;
-            detail << ": J = " << outcome.jacobian;
-            break;
-          case KernelStatus::material_failure:
-            failed.status = EvaluationStatus::material_failure;
-            detail << ": the law is not defined there (J = " << outcome.jacobian << ")";
-            break;
-          default:
-            failed.status = EvaluationStatus::non_finite;
-            detail << ": non-finite force or stiffness";
-            break;
+#pragma omp for schedule(static)
+    for (Eigen::Index i = 0; i < forces.size(); ++i) {
+      forces(i) = 0.0;
+    }
+    for (int start = 0; start < cells; start += chunk_size) {
+      const int end = std::min(cells, start + chunk_size);
+      // Dynamic: cells differ in cost (mixed or not, failing early), and a
+      // virtual machine's cores do not run at an even pace.
+#pragma omp for schedule(dynamic, 16)
+      for (int c = start; c < end; ++c) {
+        const std::size_t slot = static_cast<std::size_t>(c - start);
+        CellCoordinates X;
+        CellVector dofs;
+        gather_cell(c, z, X, dofs);
+        outcomes[slot] = cell_internal_forces(settings[static_cast<std::size_t>(c)], X, dofs,
+                                              residuals[slot], tangent ? &matrices[slot] : nullptr);
+      }
+      // Every thread reads the same outcomes after the barrier above, so all
+      // leave the loop at the same chunk.
+      int failure_in_chunk = -1;
+      for (int c = start; c < end && failure_in_chunk < 0; ++c) {
+        if (outcomes[static_cast<std::size_t>(c - start)].status != KernelStatus::ok) {
+          failure_in_chunk = c;
         }
-        failed.detail = detail.str();
-        return failed;
       }
-      const int n = static_cast<int>(residuals[slot].size());
-      assembly.scatter_vector(c, residuals[slot].data(), n, forces);
-      if (tangent) {
-        assembly.scatter_matrix(c, matrices[slot].data(), n, values);
+      if (failure_in_chunk >= 0) {
+#pragma omp master
+        failed_cell = failure_in_chunk;
+        break;
       }
+      for (int c = start; c < end; ++c) {
+        const std::size_t slot = static_cast<std::size_t>(c - start);
+        const int n = static_cast<int>(residuals[slot].size());
+        assembly.scatter_vector(c, residuals[slot].data(), n, forces, share);
+        if (tangent) {
+          assembly.scatter_matrix(c, matrices[slot].data(), n, values, share);
+        }
+      }
+#pragma omp barrier
     }
+  }
+  if (failed_cell >= 0) {
+    return cell_failure(failed_cell, outcomes[static_cast<std::size_t>(failed_cell % chunk_size)]);
   }
 
   // Follower pressures: f_ext enters the residual with a minus sign, its

@@ -57,11 +57,18 @@ struct VolumetricResponse {
   bool admissible = true;     // false for J <= 0 (all values then zero)
 };
 
+// What a caller needs from a law: residual evaluations (line searches,
+// post-processing) need only the energy and P, and skip the tangent, which
+// costs several times as much. With stress_only the tangent is left zero.
+enum class Need { stress_only, stress_and_tangent };
+
 // Full response W(F) = W_iso(Fbar) + U(J). Requires det F > 0.
-[[nodiscard]] PointResponse evaluate(const LawParameters& law, const Eigen::Matrix3d& F);
+[[nodiscard]] PointResponse evaluate(const LawParameters& law, const Eigen::Matrix3d& F,
+                                     Need need = Need::stress_and_tangent);
 
 // Isochoric part only: W_iso(J^(-1/3) F), its P and dP/dF with respect to F.
-[[nodiscard]] PointResponse evaluate_isochoric(const LawParameters& law, const Eigen::Matrix3d& F);
+[[nodiscard]] PointResponse evaluate_isochoric(const LawParameters& law, const Eigen::Matrix3d& F,
+                                               Need need = Need::stress_and_tangent);
 
 // Volumetric part only.
 [[nodiscard]] VolumetricResponse evaluate_volumetric(const LawParameters& law, double J);
