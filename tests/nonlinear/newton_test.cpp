@@ -101,6 +101,40 @@ TEST_CASE("The line search rescues Newton where full steps diverge", "[newton]")
   CHECK(backtracked);
 }
 
+// r(q) = q^2 + 1 has no real root: |r| >= 1 wherever Newton goes, so an
+// iteration from q = 3 (|r| = 10) can fall towards 1 but never halve its
+// residual once there. Closed-form fact, no source needed.
+class NoRealRoot : public plystrain::solver::NonlinearSystem {
+ public:
+  [[nodiscard]] int size() const override { return 1; }
+  plystrain::solver::Evaluation evaluate(const Eigen::VectorXd& q, double, Eigen::VectorXd& residual,
+                                         plystrain::solver::SparseMatrix* tangent) override {
+    residual = Eigen::VectorXd::Constant(1, q(0) * q(0) + 1.0);
+    if (tangent != nullptr) {
+      tangent->resize(1, 1);
+      tangent->setZero();
+      tangent->insert(0, 0) = 2.0 * q(0);
+      tangent->makeCompressed();
+    }
+    return {};
+  }
+};
+
+TEST_CASE("Newton stops early when the residual stops falling", "[newton]") {
+  NoRealRoot system;
+  DirectSparseSolver solver;
+  NewtonOptions options;
+  options.max_iterations = 50;
+  const auto result = solve_newton(system, solver, Eigen::VectorXd::Constant(1, 3.0), 1.0, options);
+  CHECK(result.status == NewtonStatus::stagnated);
+  CHECK(result.iterations.size() < 20);
+  CHECK(result.detail.find("fell only") != std::string::npos);
+
+  options.progress_window = 0;  // the rule off: runs to the limit
+  const auto unlimited = solve_newton(system, solver, Eigen::VectorXd::Constant(1, 3.0), 1.0, options);
+  CHECK(unlimited.status == NewtonStatus::iteration_limit);
+}
+
 TEST_CASE("Newton failures come back as data", "[newton]") {
   HardeningSpringChain chain(5, 1.0, 2.0, 3.0);
   DirectSparseSolver solver;

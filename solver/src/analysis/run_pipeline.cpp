@@ -178,6 +178,13 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
       line << "  attempt " << attempt << ", iteration " << record.iteration << ": residual "
            << record.residual_norm << ", increment " << record.increment_norm << ", step "
            << record.line_search_factor;
+      if (record.method != solver::FactorizationMethod::none) {
+        line << "; assembly " << format("%.3f", record.assemble_seconds) << " s, "
+             << solver::method_name(record.method) << " " << format("%.3f", record.factorize_seconds) << " s";
+        if (record.analyse_seconds > 0.0) {
+          line << " (analysis " << format("%.3f", record.analyse_seconds) << " s)";
+        }
+      }
       log.line(line.str());
     };
     callbacks.on_failure = [&](const solver::FailedAttempt& failure) {

@@ -91,14 +91,26 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
 
   // Tangent predictor at the last converged state; false when it cannot be
   // formed (the plan then starts from the last converged state).
+  // The factorization the linear solver holds is that of the converged
+  // Newton's last iterate, a tangent within the Newton tolerance of the one
+  // at the converged state: the predictor reuses it instead of assembling
+  // and factorizing again (a predictor needs only an approximate tangent).
+  bool factor_at_current = false;
   auto tangent_predictor = [&](double load_step, Eigen::VectorXd& q) {
     Eigen::VectorXd residual;
     Eigen::VectorXd load_column;
-    SparseMatrix tangent;
-    if (!system.evaluate(current.q, current.load_factor, residual, &tangent).ok() ||
-        !system.load_derivative(current.q, current.load_factor, load_column).ok() ||
-        !linear_solver.factorize(tangent, options.newton.symmetry).ok()) {
-      return false;
+    if (factor_at_current) {
+      if (!system.evaluate(current.q, current.load_factor, residual, nullptr).ok() ||
+          !system.load_derivative(current.q, current.load_factor, load_column).ok()) {
+        return false;
+      }
+    } else {
+      SparseMatrix tangent;
+      if (!system.evaluate(current.q, current.load_factor, residual, &tangent).ok() ||
+          !system.load_derivative(current.q, current.load_factor, load_column).ok() ||
+          !linear_solver.factorize(tangent, options.newton.symmetry).ok()) {
+        return false;
+      }
     }
     Eigen::VectorXd change;
     if (!linear_solver.solve(-(residual + load_step * load_column), change).ok) {
@@ -254,6 +266,8 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
       return finish(PathStatus::exception, std::string("the system threw: ") + error.what());
     }
 
+    factor_at_current = newton.converged() && newton.last_factorization.method != FactorizationMethod::none &&
+                        newton.last_factorization.ok();
     if (newton.converged()) {
       const bool first_arc_reached_end = options.control == ControlMode::arc_length && !plan.path &&
                                          newton.load_factor >= options.load_factor_end - end_tolerance;

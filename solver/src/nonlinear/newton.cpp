@@ -5,6 +5,7 @@
 #include <cmath>
 #include <limits>
 #include <string>
+#include <vector>
 
 namespace plystrain::solver {
 
@@ -37,6 +38,7 @@ const char* status_name(NewtonStatus status) {
     case NewtonStatus::solve_failed: return "linear solve failed";
     case NewtonStatus::non_finite: return "non-finite residual or step";
     case NewtonStatus::iteration_limit: return "iteration limit reached";
+    case NewtonStatus::stagnated: return "no progress";
     case NewtonStatus::diverged: return "diverged";
     case NewtonStatus::singular_path_equation: return "singular path equation";
   }
@@ -84,7 +86,9 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
   double last_increment = infinity;
   double previous_residual_norm = residual_norm;
 
+  std::vector<double> history;  // residual norm at the start of each iteration
   for (int iteration = 0;; ++iteration) {
+    history.push_back(residual_norm);
     record.iteration = iteration;
     record.residual_norm = residual_norm;
     record.load_factor = result.load_factor;
@@ -139,6 +143,18 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
       result.iterations.push_back(record);
       return fail(NewtonStatus::iteration_limit, "no convergence in " + std::to_string(options.max_iterations) +
                                                      " iterations (residual " + std::to_string(residual_norm) + ")");
+    }
+    // Not near rounding level, where halving is not to be expected.
+    if (options.progress_window > 0 && iteration >= options.progress_window &&
+        residual_norm > options.stalled_residual_tolerance * residual_reference &&
+        residual_norm > options.progress_factor *
+                            history[static_cast<std::size_t>(iteration - options.progress_window)]) {
+      result.iterations.push_back(record);
+      return fail(NewtonStatus::stagnated,
+                  "the residual fell only from " +
+                      std::to_string(history[static_cast<std::size_t>(iteration - options.progress_window)]) +
+                      " to " + std::to_string(residual_norm) + " in " + std::to_string(options.progress_window) +
+                      " iterations");
     }
     if (residual_norm > options.divergence_factor * residual_reference) {
       result.iterations.push_back(record);

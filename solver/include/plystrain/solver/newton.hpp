@@ -47,6 +47,14 @@ struct NewtonOptions {
   double stalled_residual_tolerance = 1e-5;
   // Stop as diverged when r_k exceeds this multiple of r_ref.
   double divergence_factor = 1e8;
+  // Stop as stagnated when r_k > progress_factor * r_(k - progress_window):
+  // an iteration that has not even halved its residual in that many steps
+  // is far outside Newton's region of attraction, and a cut-back increment
+  // is cheaper than running on to the iteration limit (each of those steps
+  // costs a factorization, often of an indefinite tangent). 0 switches the
+  // rule off.
+  int progress_window = 4;
+  double progress_factor = 0.5;
 
   // Backtracking (Armijo) on |R|: accept the step factor a when
   //     |R(q + a dq)| <= (1 - sufficient_decrease * a) |R(q)|,
@@ -83,6 +91,7 @@ enum class NewtonStatus {
   solve_failed,
   non_finite,             // a non-finite residual norm or step
   iteration_limit,
+  stagnated,              // the residual stopped falling (see NewtonOptions::progress_window)
   diverged,
   singular_path_equation, // the bordered system has no unique load-factor correction
 };
