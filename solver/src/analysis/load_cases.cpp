@@ -209,6 +209,16 @@ std::vector<LoadCase> build_load_cases(const CaseSpec& spec, mesh::Mesh& grid) {
   // x = 0 is the symmetry plane, the axis, or the middle of a full strip.
   grid.node_sets[anchor_node_set] = {nearest_bottom_node(grid, 0.0)};
 
+  // Every unbonded span of an interface: frictionless contact between its
+  // two faces, whatever the load.
+  std::vector<solver::FaceContact> contacts;
+  for (const mesh::ContactPair& pair : grid.contact_pairs) {
+    solver::FaceContact contact;
+    contact.lower_edge_set = pair.lower_edge_set;
+    contact.upper_edge_set = pair.upper_edge_set;
+    contacts.push_back(contact);
+  }
+
   std::vector<LoadCase> cases;
   switch (spec.load.kind.value) {
     case LoadKind::stretch: {
@@ -236,6 +246,9 @@ std::vector<LoadCase> build_load_cases(const CaseSpec& spec, mesh::Mesh& grid) {
       throw InputError(spec.load.kind.where, "load.kind",
                        "\"conform\" is not available in this version of plystrain "
                        "(stretch and bend are)");
+  }
+  for (LoadCase& load_case : cases) {
+    load_case.definition.contacts = contacts;
   }
   return cases;
 }

@@ -290,6 +290,27 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       traction_variables.push_back(edge_variables(edge));
     }
   }
+  if (!definition.contacts.empty()) {
+    std::vector<double> youngs_modulus_of_cell;
+    youngs_modulus_of_cell.reserve(mesh.cells.size());
+    for (const mesh::Cell& cell : mesh.cells) {
+      const materials::LawParameters& law = definition.regions[static_cast<std::size_t>(cell.region)].law;
+      const double mu = materials::initial_shear_modulus(law);
+      const double kappa = materials::initial_bulk_modulus(law);
+      youngs_modulus_of_cell.push_back(9.0 * kappa * mu / (3.0 * kappa + mu));
+    }
+    contact_pairs = pair_contact_nodes(mesh, definition.contacts, axisymmetric, youngs_modulus_of_cell);
+    // The faces start touching: every pair closed, so the first increments
+    // see the stack as it is rather than a loose film over a gap (which has
+    // almost no bending stiffness).
+    contact_closed.assign(contact_pairs.size(), 1);
+    accepted_contact_closed = contact_closed;
+    contact_block_begin = static_cast<int>(blocks.size());
+    for (const ContactNodePair& pair : contact_pairs) {
+      const std::array<int, 4> vars = contact_variables(pair);
+      blocks.emplace_back(vars.begin(), vars.end());
+    }
+  }
   symmetric = pressure_edges.empty();
   assembly = AssemblyPattern(constraints, blocks);
 }
@@ -424,6 +445,17 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
       forces(vars[static_cast<std::size_t>(a)]) -= f(a);
     }
   }
+  for (std::size_t k = 0; k < contact_pairs.size(); ++k) {
+    Eigen::Matrix<double, 4, 1> f;
+    Eigen::Matrix<double, 4, 4> stiffness;
+    if (contact_pair_forces(contact_pairs[k], contact_closed[k] != 0, z, f, stiffness)) {
+      const int block = contact_block_begin + static_cast<int>(k);
+      assembly.scatter_vector(block, f.data(), 4, forces);
+      if (tangent) {
+        assembly.scatter_matrix(block, stiffness.data(), 4, values);
+      }
+    }
+  }
   if (gps) {
     forces(out_of_plane_variable) -= definition.out_of_plane.resultant.at(load_factor);
   }
@@ -468,6 +500,84 @@ const mesh::Mesh& Model::mesh() const { return impl_->mesh; }
 const ModelDefinition& Model::definition() const { return impl_->definition; }
 const std::vector<RegionTreatment>& Model::region_treatments() const { return impl_->treatments; }
 const std::vector<std::string>& Model::warnings() const { return impl_->warnings; }
+
+bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
+  ModelImpl& impl = *impl_;
+  if (impl.contact_pairs.empty()) {
+    return false;
+  }
+  // Past this many changes in one attempt the set is left as it is (and
+  // contact_state says so): a pair that flips back and forth carries almost
+  // nothing either way, and the increment is better kept than lost.
+  constexpr int most_updates = 8;
+  if (impl.contact_updates >= most_updates) {
+    impl.contact_unsettled = true;
+    return false;
+  }
+  const Eigen::VectorXd z = impl.variables(q, load_factor);
+  // The gap tolerance is relative to the size of the deformation: far above
+  // round-off, so that pairs the load does not touch (a uniform stretch
+  // puts no traction on the faces) keep their state, and far below the
+  // penalty's own closing under load, p h / (1e3 E), so that a pair pulled
+  // apart opens.
+  double displacement_scale = 0.0;
+  for (Eigen::Index i = 0; i < 2 * static_cast<Eigen::Index>(impl.mesh.node_count()); ++i) {
+    displacement_scale = std::max(displacement_scale, std::abs(z(i)));
+  }
+  const double tolerance = 1e-8 * displacement_scale;
+  bool changed = false;
+  for (std::size_t k = 0; k < impl.contact_pairs.size(); ++k) {
+    const ContactNodePair& pair = impl.contact_pairs[k];
+    const double gap = contact_gap(pair, z);
+    const bool closed = impl.contact_closed[k] != 0;
+    if (closed && gap > tolerance) {
+      impl.contact_closed[k] = 0;  // pulled apart: the pair would carry tension
+      changed = true;
+    } else if (!closed && gap < -tolerance) {
+      impl.contact_closed[k] = 1;  // pushed through
+      changed = true;
+    }
+  }
+  impl.contact_updates += changed ? 1 : 0;
+  return changed;
+}
+
+void Model::accept_increment(const Eigen::VectorXd&, double) {
+  impl_->accepted_contact_closed = impl_->contact_closed;
+}
+
+void Model::begin_attempt() {
+  impl_->contact_closed = impl_->accepted_contact_closed;
+  impl_->contact_updates = 0;
+  impl_->contact_unsettled = false;
+}
+
+ContactState Model::contact_state(const Eigen::VectorXd& q, double load_factor) const {
+  ContactState state;
+  const std::vector<ContactNodePair>& pairs = impl_->contact_pairs;
+  state.pairs = static_cast<int>(pairs.size());
+  state.unsettled = impl_->contact_unsettled;
+  if (pairs.empty()) {
+    return state;
+  }
+  const Eigen::VectorXd z = impl_->variables(q, load_factor);
+  for (std::size_t k = 0; k < pairs.size(); ++k) {
+    const ContactNodePair& pair = pairs[k];
+    const double gap = contact_gap(pair, z);
+    const Eigen::Vector2d relative(z(2 * pair.upper) - z(2 * pair.lower), z(2 * pair.upper + 1) - z(2 * pair.lower + 1));
+    const double slip = std::abs(relative.x() * pair.normal.y() - relative.y() * pair.normal.x());
+    state.max_slip = std::max(state.max_slip, slip);
+    state.max_slip_to_spacing = std::max(state.max_slip_to_spacing, slip / std::max(pair.spacing, 1e-300));
+    if (impl_->contact_closed[k] != 0) {
+      ++state.closed;
+      state.max_penetration = std::max(state.max_penetration, -gap);
+      state.max_pressure = std::max(state.max_pressure, pair.stiffness * -gap / std::max(pair.area, 1e-300));
+    } else {
+      state.max_opening = std::max(state.max_opening, gap);
+    }
+  }
+  return state;
+}
 
 CellFormulation Model::cell_formulation(int cell) const {
   const CellSetting& s = impl_->settings.at(static_cast<std::size_t>(cell));

@@ -1,6 +1,7 @@
 // The model's internals, shared by model.cpp and post.cpp.
 #pragma once
 
+#include "face_contact.hpp"
 #include "plystrain/solver/assembly.hpp"
 #include "plystrain/solver/constraints.hpp"
 #include "plystrain/solver/elements.hpp"
@@ -40,6 +41,12 @@ class ModelImpl {
   std::vector<LoadedEdge> pressure_edges;
   std::vector<LoadedEdge> traction_edges;
   std::vector<std::vector<int>> traction_variables;
+  std::vector<ContactNodePair> contact_pairs;
+  std::vector<char> contact_closed;           // the active set used by evaluate
+  std::vector<char> accepted_contact_closed;  // as accepted with the last increment
+  int contact_updates = 0;         // changes of the set in the current attempt
+  bool contact_unsettled = false;  // the set was still changing when the updates stopped
+  int contact_block_begin = 0;  // assembly block of the first contact pair
   int variable_count = 0;
   int out_of_plane_variable = -1;  // e3 (generalized plane strain)
   ConstraintSet constraints;

@@ -195,11 +195,13 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
     if (options.control == ControlMode::displacement) {
       q_moved(options.controlled_unknown) = plan.q_predicted(options.controlled_unknown);
     }
+    system.begin_attempt();
     const double reference = residual_norm_at(system, q_moved, plan.load_predicted);
     NewtonResult newton = run_newton(plan, plan.q_predicted, plan.load_predicted, reference);
     if (newton.status == NewtonStatus::evaluation_failed && newton.iterations.empty() &&
         (plan.q_predicted - q_moved).norm() > 0.0) {
       ++result.attempts;
+      system.begin_attempt();
       newton = run_newton(plan, q_moved, plan.path ? current.load_factor : plan.load_predicted, reference);
     }
     return newton;

@@ -111,6 +111,32 @@ struct DeadTraction {
       traction;
 };
 
+// Frictionless contact between two faces that start coincident, with
+// separate nodes (an unbonded interface: the mesher's `<name>-lower` and
+// `<name>-upper` edge sets). The faces may separate and slide without
+// friction but not pass through each other.
+//
+// Method: node-to-node penalty. Each upper-face node is paired with the
+// lower-face node at the same reference position; the gap is the relative
+// displacement along the lower face's reference normal,
+//     g = (u_upper - u_lower) . n,
+// and a closed pair carries the normal force k w (-g), w the node's
+// share of the face (integral of its shape function over the edge; times
+// 2 pi r when axisymmetric) and k the penalty stiffness per unit area. This is
+// a small-sliding, small-rotation model: it is exact for faces that stay
+// parallel and slide less than a cell along each other, which is what an
+// unbonded span in a stretched or gently bent stack does; Model::contact_state
+// reports the largest slip so a run can say when that no longer holds.
+struct FaceContact {
+  std::string lower_edge_set;  // top face of the material below
+  std::string upper_edge_set;  // bottom face of the material above
+  // k = penalty_factor * E / h, with E the larger small-strain Young's
+  // modulus of the two materials and h the node's tributary length along
+  // the face: the penetration under a contact pressure p is about
+  // p h / (penalty_factor E), a small fraction of the cell size.
+  double penalty_factor = 1e3;
+};
+
 // Generalized plane strain only: with no prescribed strain, e3 is a free
 // unknown fixed by the out-of-plane resultant (the integral of P33 over the
 // section, per unit depth) equalling `resultant` (0 = free contraction).
@@ -133,6 +159,7 @@ struct ModelDefinition {
   std::vector<LinearConstraint> linear_constraints;
   std::vector<FollowerPressure> pressures;
   std::vector<DeadTraction> tractions;
+  std::vector<FaceContact> contacts;
   int threads = 0;  // OpenMP threads for the element loop; 0 = the OpenMP default
 };
 
@@ -140,6 +167,18 @@ struct ModelDefinition {
 struct RegionTreatment {
   bool mixed = false;  // displacement-pressure with condensed element pressure
   double bulk_to_shear = 0.0;
+};
+
+// The contact faces at a state, for reports.
+struct ContactState {
+  int pairs = 0;
+  int closed = 0;                 // pairs in the closed set
+  double max_penetration = 0.0;   // largest -g over the closed pairs (length)
+  double max_pressure = 0.0;      // largest normal force per unit face area (stress)
+  double max_opening = 0.0;       // largest g over the open pairs (length)
+  double max_slip = 0.0;          // largest relative tangential displacement (length)
+  double max_slip_to_spacing = 0.0;  // the same over the pair's node spacing along the face
+  bool unsettled = false;  // the last attempt stopped updating a set that was still changing
 };
 
 // Per-cell record used by post-processing.
@@ -166,6 +205,14 @@ class Model final : public NonlinearSystem {
   Evaluation evaluate(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& residual,
                       SparseMatrix* tangent) override;
 
+  // Contact: the set of closed pairs is held fixed through a Newton solve
+  // (so the equations are smooth) and updated once it has converged: a
+  // closed pair pulled apart opens, an open pair pushed through closes, and
+  // Newton iterates again at the same load.
+  bool update_active_set(const Eigen::VectorXd& q, double load_factor) override;
+  void accept_increment(const Eigen::VectorXd& q, double load_factor) override;
+  void begin_attempt() override;
+
   // False when a follower pressure is present: the linear solver must then
   // use its LU fallback.
   [[nodiscard]] bool tangent_is_symmetric() const;
@@ -188,6 +235,9 @@ class Model final : public NonlinearSystem {
   // The integral of P33 over the section (generalized plane strain: the
   // out-of-plane resultant per unit depth).
   [[nodiscard]] double out_of_plane_resultant(const Eigen::VectorXd& q, double load_factor) const;
+
+  // The state of the contact faces at (q, lambda); all zero without contact.
+  [[nodiscard]] ContactState contact_state(const Eigen::VectorXd& q, double load_factor) const;
 
   // Warnings found while building (e.g. 3-node triangles in a region that
   // needs the locking cure, which they cannot have).

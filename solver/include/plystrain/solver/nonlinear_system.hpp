@@ -51,6 +51,11 @@ class NonlinearSystem {
   // Called once an increment has converged, e.g. to update contact states.
   virtual void accept_increment(const Eigen::VectorXd& /*q*/, double /*load_factor*/) {}
 
+  // Called before each Newton attempt at an increment: a system with an
+  // active set goes back to the set accepted with the last increment, so
+  // that a failed attempt leaves nothing behind.
+  virtual void begin_attempt() {}
+
   // Called after a Newton iteration has converged; a system with active sets
   // (contact) returns true when it changed its set, and Newton then iterates
   // again at the same load.

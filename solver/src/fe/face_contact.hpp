@@ -1,0 +1,47 @@
+// Node-to-node penalty contact between two coincident faces (see FaceContact
+// in model.hpp for the model and its limits). Internal to the solver library.
+#pragma once
+
+#include "plystrain/mesh/mesh.hpp"
+#include "plystrain/solver/model.hpp"
+
+#include <Eigen/Core>
+
+#include <array>
+#include <string>
+#include <vector>
+
+namespace plystrain::solver {
+
+// One upper-face node facing one lower-face node.
+struct ContactNodePair {
+  int lower = -1;
+  int upper = -1;
+  Eigen::Vector2d normal = Eigen::Vector2d::UnitY();  // unit, out of the lower material
+  double stiffness = 0.0;  // k w: normal force per unit closing displacement
+  double area = 0.0;       // w: the node's share of the face
+  double spacing = 0.0;    // the node's tributary length along the face
+};
+
+// Pairs the nodes of each contact's faces. `youngs_modulus_of_cell` gives the
+// small-strain Young's modulus of a cell's material. Throws
+// std::invalid_argument naming the contact when a set is missing or a node of
+// one face has no partner at the same position on the other.
+[[nodiscard]] std::vector<ContactNodePair> pair_contact_nodes(
+    const mesh::Mesh& mesh, const std::vector<FaceContact>& contacts, bool axisymmetric,
+    const std::vector<double>& youngs_modulus_of_cell);
+
+// The four variables of a pair, in the order the kernel uses:
+// (lower x, lower z, upper x, upper z).
+[[nodiscard]] std::array<int, 4> contact_variables(const ContactNodePair& pair);
+
+// Gap along the normal, g = (u_upper - u_lower) . n, from the displacements z.
+[[nodiscard]] double contact_gap(const ContactNodePair& pair, const Eigen::VectorXd& z);
+
+// Residual (4) and tangent (4 x 4, column-major) of one pair's penalty
+// energy k/2 g^2 at the displacements z while the pair is in the closed set.
+// Returns false (and zeros) for an open pair, which contributes nothing.
+bool contact_pair_forces(const ContactNodePair& pair, bool closed, const Eigen::VectorXd& z,
+                         Eigen::Matrix<double, 4, 1>& force, Eigen::Matrix<double, 4, 4>& stiffness);
+
+}  // namespace plystrain::solver
