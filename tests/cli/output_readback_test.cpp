@@ -52,13 +52,20 @@ enum class Kind { string, integer, number, boolean, array, object, null };
 
 bool has_kind(const nlohmann::json& value, Kind kind) {
   switch (kind) {
-    case Kind::string: return value.is_string();
-    case Kind::integer: return value.is_number_integer();
-    case Kind::number: return value.is_number();
-    case Kind::boolean: return value.is_boolean();
-    case Kind::array: return value.is_array();
-    case Kind::object: return value.is_object();
-    case Kind::null: return value.is_null();
+    case Kind::string:
+      return value.is_string();
+    case Kind::integer:
+      return value.is_number_integer();
+    case Kind::number:
+      return value.is_number();
+    case Kind::boolean:
+      return value.is_boolean();
+    case Kind::array:
+      return value.is_array();
+    case Kind::object:
+      return value.is_object();
+    case Kind::null:
+      return value.is_null();
   }
   return false;
 }
@@ -210,8 +217,8 @@ TEST_CASE("fields read back with VTK's readers: cells, points, arrays, collectio
     vtkDataArray* displacement = grid.GetPointData()->GetArray("displacement");
     double largest_misfit = 0.0;
     for (vtkIdType id = 0; id < points; ++id) {
-      const double onset = crack_onset[static_cast<std::size_t>(
-          layer_of_point[static_cast<std::size_t>(id)])];
+      const double onset =
+          crack_onset[static_cast<std::size_t>(layer_of_point[static_cast<std::size_t>(id)])];
       const double expected = onset > 0.0 ? max_strain->GetComponent(id, 0) / onset : 0.0;
       largest_misfit =
           std::max(largest_misfit, std::abs(crack_ratio->GetComponent(id, 0) - expected));
@@ -268,7 +275,8 @@ TEST_CASE("results.json carries every documented key with its documented type",
   CHECK(results["completed"] == true);
   CHECK(results["load_reached"].get<double>() == 1.0);
   CHECK(results["message"] == "");
-  check_keys(results["model"], {{"shape", {string}}, {"load", {string}}, {"lateral", {string, number, null}}},
+  check_keys(results["model"],
+             {{"shape", {string}}, {"load", {string}}, {"lateral", {string, number, null}}},
              "model");
   CHECK(results["model"]["shape"] == "disk");
   CHECK(results["model"]["load"] == "stretch");
@@ -276,15 +284,19 @@ TEST_CASE("results.json carries every documented key with its documented type",
   CHECK(results["model"]["lateral"].is_null());
   CHECK(results["conform"].is_null());  // stretch, not conform
   check_keys(results["mesh"],
-             {{"nodes", {integer}}, {"elements", {integer}}, {"unknowns", {integer}},
+             {{"nodes", {integer}},
+              {"elements", {integer}},
+              {"unknowns", {integer}},
               {"min_quality", {number}}},
              "mesh");
   CHECK(results["mesh"]["nodes"].get<int>() > 0);
   CHECK(results["mesh"]["elements"].get<int>() > 0);
   CHECK(results["mesh"]["unknowns"].get<int>() > 0);
   check_keys(results["solver"],
-             {{"increments", {integer}}, {"newton_iterations", {integer}},
-              {"cutbacks", {integer}}, {"seconds", {number}}},
+             {{"increments", {integer}},
+              {"newton_iterations", {integer}},
+              {"cutbacks", {integer}},
+              {"seconds", {number}}},
              "solver");
   for (const nlohmann::json& caution : results["cautions"]) {
     CHECK(caution.is_string());
