@@ -187,3 +187,28 @@ TEST_CASE("bilayer bending at small strain: neutral-plane formula and Suo et al.
       top["peak_strain"].get<double>() * (foil + film - neutral) / (z_peak - neutral);
   CHECK(extrapolated_top == Approx(suo_top).epsilon(5e-3));
 }
+
+TEST_CASE("a stiff film at the middle of a symmetric sandwich sees almost no bending strain", "[cli][run]") {
+  // By symmetry the neutral plane of a symmetric laminate is its mid-plane
+  // (laminate plate theory, e.g. Timoshenko & Woinowsky-Krieger, Theory of
+  // Plates and Shells, 1959, or verification.md section 4), so a film there
+  // is strained by at most its own half-thickness over R, while the outer
+  // faces see (H/2)/R: the neutral-plane design of flexible devices.
+  const nlohmann::json results = run_case("cli/sandwich-bend.toml", "sandwich");
+  REQUIRE(results["layers"].size() == 3);
+  const double radius = 200000.0;
+  const double half_total = (20.0 + 0.5 + 20.0) / 2.0;
+  const double film_half = 0.5 / 2.0;
+  const nlohmann::json& film = results["layers"][1];
+  const nlohmann::json& above = results["layers"][2];
+  // The film's peak is below its half-thickness over R (plus 1 % for the
+  // integration points' own positions and round-off).
+  CHECK(film["peak_strain"].get<double>() <= 1.01 * film_half / radius);
+  // The outer layer's peak, carried to the top face along the linear profile
+  // through the mid-plane, is (H/2)/R.
+  const double z_peak = above["peak_at"][1].get<double>();
+  const double extrapolated_top = above["peak_strain"].get<double>() * half_total / (z_peak - half_total);
+  CHECK(extrapolated_top == Approx(half_total / radius).epsilon(5e-3));
+  // Almost no strain: two orders of magnitude below the outer faces.
+  CHECK(film["peak_strain"].get<double>() < 0.02 * extrapolated_top);
+}
