@@ -160,6 +160,25 @@ TEST_CASE("constraint elimination resolves chains of constraints", "[fe][constra
   CHECK_THROWS_AS(twice.prescribe(0, [](double) { return 1.0; }, "second"), std::invalid_argument);
 }
 
+TEST_CASE("many nodes tied to one reference node keep short definitions", "[fe][constraints]") {
+  // z_i - z_0 = i lambda for i = 1..n (a straight edge tied to its bottom
+  // node). Each tie must eliminate z_i, not the reference z_0: eliminating
+  // the reference chains every later tie through the earlier ones.
+  constexpr int n = 400;
+  solver::ConstraintSet set(n + 1, 0);
+  for (int i = 1; i <= n; ++i) {
+    set.add_linear({{i, 1.0}, {0, -1.0}}, [i](double l) { return i * l; }, "tie");
+  }
+  set.finish();
+  CHECK(set.is_free(0));
+  REQUIRE(set.reduced_count() == 1);
+  for (int i = 1; i <= n; ++i) {
+    CHECK(set.reduced_row(i).size() == 1);
+  }
+  const Eigen::VectorXd z = set.expand(Eigen::VectorXd::Constant(1, 0.25), 2.0);
+  CHECK(z(n) - z(0) == Approx(2.0 * n));
+}
+
 TEST_CASE("a rigid face follows a large rotation exactly", "[fe][constraints]") {
   // Rotate the right face of a strip by 60 degrees about its bottom corner:
   // the face's nodes must stay on the rotated straight line with their

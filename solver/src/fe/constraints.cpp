@@ -93,11 +93,27 @@ void ConstraintSet::add_linear(const std::vector<AffineTerm>& terms, Signal sign
   for (const AffineTerm& u : unknowns) {
     largest = std::max(largest, std::abs(u.coefficient));
   }
+  // The largest coefficient gives the best-conditioned elimination. Among
+  // equal ones the unknown written first is eliminated: a caller tying many
+  // nodes to one reference node (u_i - u_ref = c) then gets one short
+  // definition per node. (Choosing by index instead could eliminate the
+  // reference node and chain every later constraint through the earlier
+  // ones, growing each definition with all earlier signals.)
+  auto rank = [&terms](int index) {
+    for (std::size_t k = 0; k < terms.size(); ++k) {
+      if (terms[k].index == index) {
+        return static_cast<int>(k);
+      }
+    }
+    return static_cast<int>(terms.size());  // reached through an earlier definition
+  };
   auto slave = unknowns.end();
   for (auto it = unknowns.begin(); it != unknowns.end(); ++it) {
-    // The largest coefficient gives the best-conditioned elimination.
-    if (std::abs(it->coefficient) > 1e-12 * largest &&
-        (slave == unknowns.end() || std::abs(it->coefficient) > std::abs(slave->coefficient))) {
+    if (!(std::abs(it->coefficient) > 1e-12 * largest)) {
+      continue;
+    }
+    if (slave == unknowns.end() || std::abs(it->coefficient) > std::abs(slave->coefficient) ||
+        (std::abs(it->coefficient) == std::abs(slave->coefficient) && rank(it->index) < rank(slave->index))) {
       slave = it;
     }
   }
