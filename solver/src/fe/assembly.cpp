@@ -110,11 +110,6 @@ void AssemblyPattern::adopt_pattern(SparseMatrix& matrix) const {
   }
 }
 
-void AssemblyPattern::prepare(SparseMatrix& matrix) const {
-  adopt_pattern(matrix);
-  std::fill(matrix.valuePtr(), matrix.valuePtr() + matrix.nonZeros(), 0.0);
-}
-
 void AssemblyPattern::scatter_matrix(int block, const double* k, int n, double* values,
                                      ScatterShare share) const {
   const Plan& plan = plans_[static_cast<std::size_t>(block)];

@@ -19,15 +19,6 @@ struct FaceNode {
   double modulus = 0.0;
 };
 
-const std::vector<mesh::Edge>& edge_set(const mesh::Mesh& mesh, const std::string& name,
-                                        const std::string& what) {
-  const auto found = mesh.edge_sets.find(name);
-  if (found == mesh.edge_sets.end()) {
-    throw std::invalid_argument(what + ": the mesh has no edge set '" + name + "'");
-  }
-  return found->second;
-}
-
 // Per node of a face: the integral of its shape function over the face (its
 // share of the area), its share of the length and the outward normal of the
 // face's material. Edges have that material on their left (mesh.hpp), so the
@@ -72,61 +63,57 @@ std::map<int, FaceNode> face_nodes(const mesh::Mesh& mesh, const std::vector<mes
 
 }  // namespace
 
-std::vector<ContactNodePair> pair_contact_nodes(const mesh::Mesh& mesh, const std::vector<FaceContact>& contacts,
-                                                bool axisymmetric,
-                                                const std::vector<double>& youngs_modulus_of_cell) {
-  std::vector<ContactNodePair> pairs;
+std::vector<ContactNodePair> pair_contact_nodes(const mesh::Mesh& mesh, const std::vector<mesh::Edge>& lower_edges,
+                                                const std::vector<mesh::Edge>& upper_edges, double penalty_factor,
+                                                bool axisymmetric, const std::vector<double>& youngs_modulus_of_cell,
+                                                const std::string& what) {
+  if (!(penalty_factor > 0.0)) {
+    throw std::invalid_argument(what + ": the penalty factor must be positive");
+  }
   double extent = 0.0;
   for (const Eigen::Vector2d& x : mesh.nodes) {
     extent = std::max(extent, x.cwiseAbs().maxCoeff());
   }
   const double tolerance = 1e-9 * std::max(extent, 1e-300);
-  for (const FaceContact& contact : contacts) {
-    const std::string what = "contact between '" + contact.lower_edge_set + "' and '" + contact.upper_edge_set + "'";
-    if (!(contact.penalty_factor > 0.0)) {
-      throw std::invalid_argument(what + ": the penalty factor must be positive");
-    }
-    const std::map<int, FaceNode> lower =
-        face_nodes(mesh, edge_set(mesh, contact.lower_edge_set, what), axisymmetric, youngs_modulus_of_cell);
-    const std::map<int, FaceNode> upper =
-        face_nodes(mesh, edge_set(mesh, contact.upper_edge_set, what), axisymmetric, youngs_modulus_of_cell);
-    // Partners by position: sort the lower nodes along x (the faces are
-    // interface spans, one value of z per x).
-    std::vector<std::pair<double, int>> by_x;
-    by_x.reserve(lower.size());
-    for (const auto& [index, node] : lower) {
-      by_x.emplace_back(mesh.nodes[static_cast<std::size_t>(index)].x(), index);
-    }
-    std::sort(by_x.begin(), by_x.end());
-    for (const auto& [upper_index, upper_node] : upper) {
-      const Eigen::Vector2d X = mesh.nodes[static_cast<std::size_t>(upper_index)];
-      auto candidate = std::lower_bound(by_x.begin(), by_x.end(), std::make_pair(X.x() - tolerance, -1));
-      int partner = -1;
-      for (; candidate != by_x.end() && candidate->first <= X.x() + tolerance; ++candidate) {
-        if ((mesh.nodes[static_cast<std::size_t>(candidate->second)] - X).norm() <= tolerance) {
-          partner = candidate->second;
-          break;
-        }
+  const std::map<int, FaceNode> lower = face_nodes(mesh, lower_edges, axisymmetric, youngs_modulus_of_cell);
+  const std::map<int, FaceNode> upper = face_nodes(mesh, upper_edges, axisymmetric, youngs_modulus_of_cell);
+  // Partners by position: sort the lower nodes along x (the faces are
+  // interface spans, one value of z per x).
+  std::vector<std::pair<double, int>> by_x;
+  by_x.reserve(lower.size());
+  for (const auto& [index, node] : lower) {
+    by_x.emplace_back(mesh.nodes[static_cast<std::size_t>(index)].x(), index);
+  }
+  std::sort(by_x.begin(), by_x.end());
+  std::vector<ContactNodePair> pairs;
+  for (const auto& [upper_index, upper_node] : upper) {
+    const Eigen::Vector2d X = mesh.nodes[static_cast<std::size_t>(upper_index)];
+    auto candidate = std::lower_bound(by_x.begin(), by_x.end(), std::make_pair(X.x() - tolerance, -1));
+    int partner = -1;
+    for (; candidate != by_x.end() && candidate->first <= X.x() + tolerance; ++candidate) {
+      if ((mesh.nodes[static_cast<std::size_t>(candidate->second)] - X).norm() <= tolerance) {
+        partner = candidate->second;
+        break;
       }
-      if (partner < 0) {
-        throw std::invalid_argument(what + ": node " + std::to_string(upper_index) + " at (" +
-                                    std::to_string(X.x()) + ", " + std::to_string(X.y()) +
-                                    ") has no partner at the same position on the lower face");
-      }
-      if (partner == upper_index) {
-        continue;  // a node shared by both faces (the bonded end of the span) cannot open
-      }
-      const FaceNode& lower_node = lower.at(partner);
-      ContactNodePair pair;
-      pair.lower = partner;
-      pair.upper = upper_index;
-      pair.normal = lower_node.normal;
-      pair.area = lower_node.area;
-      pair.spacing = lower_node.spacing;
-      const double modulus = std::max(lower_node.modulus, upper_node.modulus);
-      pair.stiffness = contact.penalty_factor * modulus / std::max(pair.spacing, 1e-300) * pair.area;
-      pairs.push_back(pair);
     }
+    if (partner < 0) {
+      throw std::invalid_argument(what + ": node " + std::to_string(upper_index) + " at (" + std::to_string(X.x()) +
+                                  ", " + std::to_string(X.y()) +
+                                  ") has no partner at the same position on the lower face");
+    }
+    if (partner == upper_index) {
+      continue;  // a node shared by both faces (the bonded end of the span) cannot open
+    }
+    const FaceNode& lower_node = lower.at(partner);
+    ContactNodePair pair;
+    pair.lower = partner;
+    pair.upper = upper_index;
+    pair.normal = lower_node.normal;
+    pair.area = lower_node.area;
+    pair.spacing = lower_node.spacing;
+    const double modulus = std::max(lower_node.modulus, upper_node.modulus);
+    pair.stiffness = penalty_factor * modulus / std::max(pair.spacing, 1e-300) * pair.area;
+    pairs.push_back(pair);
   }
   return pairs;
 }

@@ -23,13 +23,14 @@ struct ContactNodePair {
   double spacing = 0.0;    // the node's tributary length along the face
 };
 
-// Pairs the nodes of each contact's faces. `youngs_modulus_of_cell` gives the
-// small-strain Young's modulus of a cell's material. Throws
-// std::invalid_argument naming the contact when a set is missing or a node of
-// one face has no partner at the same position on the other.
+// Pairs the nodes of one contact's two faces. `youngs_modulus_of_cell` gives
+// the small-strain Young's modulus of a cell's material. Throws
+// std::invalid_argument starting with `what` when a node of the upper face
+// has no partner at the same position on the lower one.
 [[nodiscard]] std::vector<ContactNodePair> pair_contact_nodes(
-    const mesh::Mesh& mesh, const std::vector<FaceContact>& contacts, bool axisymmetric,
-    const std::vector<double>& youngs_modulus_of_cell);
+    const mesh::Mesh& mesh, const std::vector<mesh::Edge>& lower_edges, const std::vector<mesh::Edge>& upper_edges,
+    double penalty_factor, bool axisymmetric, const std::vector<double>& youngs_modulus_of_cell,
+    const std::string& what);
 
 // The four variables of a pair, in the order the kernel uses:
 // (lower x, lower z, upper x, upper z).

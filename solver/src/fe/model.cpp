@@ -299,7 +299,14 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       const double kappa = materials::initial_bulk_modulus(law);
       youngs_modulus_of_cell.push_back(9.0 * kappa * mu / (3.0 * kappa + mu));
     }
-    contact_pairs = pair_contact_nodes(mesh, definition.contacts, axisymmetric, youngs_modulus_of_cell);
+    for (const FaceContact& contact : definition.contacts) {
+      const std::string what =
+          "contact between '" + contact.lower_edge_set + "' and '" + contact.upper_edge_set + "'";
+      const std::vector<ContactNodePair> pairs = pair_contact_nodes(
+          mesh, require_edge_set(mesh, contact.lower_edge_set, what), require_edge_set(mesh, contact.upper_edge_set, what),
+          contact.penalty_factor, axisymmetric, youngs_modulus_of_cell, what);
+      contact_pairs.insert(contact_pairs.end(), pairs.begin(), pairs.end());
+    }
     // The faces start touching: every pair closed, so the first increments
     // see the stack as it is rather than a loose film over a gap (which has
     // almost no bending stiffness).

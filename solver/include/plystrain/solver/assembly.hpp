@@ -36,11 +36,9 @@ class AssemblyPattern {
   // The pattern with zero values (compressed, both triangles).
   [[nodiscard]] const SparseMatrix& pattern() const { return pattern_; }
 
-  // Makes `matrix` carry this pattern (copied only when it differs) and
-  // zeroes its values.
-  void prepare(SparseMatrix& matrix) const;
-  // Makes `matrix` carry this pattern without touching its values (for a
-  // caller that zeroes them itself, in parallel).
+  // Makes `matrix` carry this pattern (copied only when it differs) without
+  // touching its values: the caller zeroes them (in parallel) before the
+  // scatter.
   void adopt_pattern(SparseMatrix& matrix) const;
 
   // values += T_b^T K_b T_b for block b, the share's columns only; K_b is
