@@ -22,6 +22,7 @@
 #include "plystrain/solver/stack_analysis.hpp"
 
 #include "plystrain/solver/input_error.hpp"
+#include "plystrain/solver/rigid_surface.hpp"
 
 #include <cmath>
 #include <limits>
@@ -52,6 +53,23 @@ void require_node_set(const mesh::Mesh& grid, const std::string& name) {
   if (!grid.node_sets.contains(name)) {
     throw std::logic_error("stack mesh has no '" + name + "' node set");
   }
+}
+
+solver::RigidSurface target_surface(const CaseSpec& spec) {
+  const LoadSpec& load = spec.load;
+  switch (load.surface.value) {
+    case SurfaceKind::sphere:
+      return solver::RigidSurface::ellipse(load.surface_radius.value, load.surface_radius.value);
+    case SurfaceKind::ellipsoid:
+      return solver::RigidSurface::ellipse(load.semi_axes.value[0], load.semi_axes.value[1]);
+    case SurfaceKind::profile:
+      try {
+        return solver::RigidSurface::profile(load.points.value);
+      } catch (const std::invalid_argument& error) {
+        throw InputError(load.points.where, "load.points", error.what());
+      }
+  }
+  throw std::logic_error("unknown surface kind");
 }
 
 solver::PrescribedDisplacement prescribe(const std::string& set, int component, double at_full) {
@@ -197,6 +215,66 @@ solver::ModelDefinition bend_definition(const CaseSpec& spec, const mesh::Mesh& 
   return definition;
 }
 
+solver::ScaledValue constant(double value) {
+  solver::ScaledValue scaled;
+  scaled.function = [value](double) { return value; };
+  return scaled;
+}
+
+// Conform (disk): the bottom face meets a rigid surface of revolution whose
+// apex is on the axis at the bottom face's height.
+//
+// Wrap: the face is held on the surface, sliding freely, with the rim free.
+// The load factor scales the surface's height from flat (0) to the full
+// shape (1), so every increment lays the device onto a slightly more curved
+// version of it: the strain grows smoothly from zero, and because the
+// contact is frictionless and the materials elastic the end state does not
+// depend on the path.
+//
+// Press: the rim is held (the outer edge when the ring is at the edge, else
+// the bottom face outside the ring radius) and the surface rises by
+// lambda * travel, touching first at the centre.
+solver::ModelDefinition conform_definition(const CaseSpec& spec, mesh::Mesh& grid) {
+  solver::ModelDefinition definition;
+  definition.regions = region_laws(spec);
+  definition.kinematics = solver::Kinematics::axisymmetric;
+  solver::SurfaceContact contact;
+  contact.edge_set = "bottom";
+  contact.surface = target_surface(spec);
+  if (spec.load.method.value == ConformMethod::wrap) {
+    contact.kind = solver::SurfaceContactKind::held_on;
+    contact.height_scale.value = 1.0;  // = lambda
+    contact.lift = constant(0.0);
+  } else {
+    contact.kind = spec.load.contact.value == ContactKind::bonded ? solver::SurfaceContactKind::bonded
+                                                                  : solver::SurfaceContactKind::frictionless;
+    contact.height_scale = constant(1.0);
+    contact.lift.value = spec.load.travel.value;
+    const double width = spec.geometry.width.value;
+    const double ring = spec.load.ring.value;
+    std::string held = "outer";
+    if (ring < width * (1.0 - 1e-9)) {
+      held = "ring-clamp";
+      std::vector<int>& clamp = grid.node_sets[held];
+      clamp.clear();
+      for (const int node : mesh::nodes_of_edge_set(grid, "bottom")) {
+        if (grid.nodes[static_cast<std::size_t>(node)].x() >= ring * (1.0 - 1e-9)) {
+          clamp.push_back(node);
+        }
+      }
+      if (clamp.empty()) {
+        throw InputError(spec.load.ring.where, "load.ring", "no node of the bottom face lies outside the ring");
+      }
+    } else {
+      require_node_set(grid, held);
+    }
+    definition.displacements.push_back(prescribe(held, 0, 0.0));
+    definition.displacements.push_back(prescribe(held, 1, 0.0));
+  }
+  definition.surface_contacts.push_back(std::move(contact));
+  return definition;
+}
+
 std::string length_label(double micrometres, LengthUnit unit) {
   std::ostringstream text;
   text << micrometres / micrometres_per(unit) << " " << unit_name(unit);
@@ -242,10 +320,13 @@ std::vector<LoadCase> build_load_cases(const CaseSpec& spec, mesh::Mesh& grid) {
       }
       break;
     }
-    case LoadKind::conform:
-      throw InputError(spec.load.kind.where, "load.kind",
-                       "\"conform\" is not available in this version of plystrain "
-                       "(stretch and bend are)");
+    case LoadKind::conform: {
+      LoadCase load_case;
+      load_case.definition = conform_definition(spec, grid);
+      load_case.stepper = stepper_options(spec);
+      cases.push_back(std::move(load_case));
+      break;
+    }
   }
   for (LoadCase& load_case : cases) {
     load_case.definition.contacts = contacts;

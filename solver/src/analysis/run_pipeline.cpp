@@ -8,6 +8,7 @@
 #include "plystrain/solver/case_writer.hpp"
 #include "plystrain/solver/field_writer.hpp"
 #include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/solver/local_checks.hpp"
 #include "plystrain/solver/results_writers.hpp"
 #include "plystrain/solver/stack_analysis.hpp"
 #include "plystrain/solver/stack_from_case.hpp"
@@ -71,6 +72,12 @@ mesh::Mesh mesh_case(const CaseSpec& spec, RunLog& log, MeshFigures& figures) {
   return grid;
 }
 
+// Largest accepted penetration of the bottom face into a rigid surface, as a
+// fraction of the local node spacing: the penalty (1e3 E / h) keeps it near
+// p / (1e3 E) of the spacing, so this is only passed where the contact
+// pressure reaches ten times the modulus.
+constexpr double surface_penetration_tolerance = 0.01;
+
 std::vector<std::string> model_cautions(const CaseSpec& spec) {
   std::vector<std::string> cautions;
   for (const LayerSpec& layer : spec.layers) {
@@ -99,6 +106,45 @@ std::vector<std::string> model_cautions(const CaseSpec& spec) {
   return cautions;
 }
 
+// The contact of a conform run: logged, and the figures of the conform block.
+template <typename Say>
+ConformResult conform_result(const CaseSpec& spec, const solver::Model& model, const Eigen::VectorXd& q,
+                             double load_factor, RunLog& log, const Say& say) {
+  const solver::SurfaceContactState contact = model.surface_contact_state(q, load_factor);
+  ConformResult conform;
+  conform.surface = surface_name(spec.load.surface.value);
+  conform.method = method_name(spec.load.method.value);
+  conform.contact_fraction = contact.touching_fraction;
+  conform.max_penetration = contact.max_penetration;
+  std::ostringstream line;
+  line << "surface contact: " << contact.nodes << " nodes of the bottom face, " << contact.touching
+       << " pressed onto the surface (" << format("%.1f", 100.0 * contact.touching_fraction)
+       << " % of the face)";
+  if (contact.pulling > 0) {
+    line << ", " << contact.pulling << " held on by pulling (" << format("%.1f", 100.0 * contact.pulling_fraction)
+         << " %)";
+  }
+  line << "; largest penetration " << format("%.3g", contact.max_penetration) << " um ("
+       << format("%.2g", contact.max_penetration_to_spacing) << " of the node spacing, tolerance "
+       << format("%.2g", surface_penetration_tolerance) << "), largest contact pressure "
+       << format("%.3g", contact.max_pressure) << " MPa";
+  log.line(line.str());
+  if (contact.max_penetration_to_spacing > surface_penetration_tolerance) {
+    const std::string warning = "warning: the bottom face sank into the surface by " +
+                                format("%.2g", contact.max_penetration_to_spacing) +
+                                " of the node spacing, above the tolerance of " +
+                                format("%.2g", surface_penetration_tolerance) +
+                                "; the contact pressure is high for the penalty";
+    log.line(warning);
+    say(warning);
+  }
+  if (contact.unsettled) {
+    log.line("warning: the set of nodes touching the surface was still changing when the last increment "
+             "stopped updating it");
+  }
+  return conform;
+}
+
 }  // namespace
 
 std::string case_hash(const std::string& case_text) {
@@ -114,7 +160,12 @@ std::string case_hash(const std::string& case_text) {
   return buffer;
 }
 
-RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
+RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
+  // A conform case that checks its defects in local cells solves the
+  // defect-free device globally.
+  const bool local_checks = spec_as_given.load.kind.value == LoadKind::conform &&
+                            spec_as_given.load.local.value && !spec_as_given.defects.empty();
+  const CaseSpec spec = local_checks ? without_defects(spec_as_given) : spec_as_given;
   const Clock::time_point start = Clock::now();
   const auto say = [&](const std::string& text) {
     if (options.progress) {
@@ -125,12 +176,12 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
   RunLog log(options.out / "log.txt");
   const OutputUnit unit{unit_name(spec.units.value), micrometres_per(spec.units.value)};
 
-  const std::string case_text = write_case_toml(spec);
+  const std::string case_text = write_case_toml(spec_as_given);
   write_file_atomically(options.out / "case.toml", case_text);
 
   RunResults run;
   run.tool_version = PLYSTRAIN_VERSION;
-  run.case_file = spec.source.filename().string();
+  run.case_file = spec_as_given.source.filename().string();
   run.case_hash = case_hash(case_text);
   run.title = spec.title.value;
   run.shape = shape_name(spec.geometry.shape.value);
@@ -139,6 +190,9 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
   run.cautions = model_cautions(spec);
   log.line("plystrain " + run.tool_version + ", case " + spec.source.string() + " (hash " +
            run.case_hash + ")");
+  if (local_checks) {
+    log.line("global solve without the defects; each defect is analysed in a local cell afterwards");
+  }
 
   mesh::Mesh grid = mesh_case(spec, log, run.mesh);
   std::vector<LoadCase> load_cases = build_load_cases(spec, grid);
@@ -151,6 +205,7 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
   }
 
   std::vector<std::vector<LayerResult>> evaluations;
+  solver::PointResults last_points;
   run.completed = true;
   for (std::size_t index = 0; index < load_cases.size(); ++index) {
     LoadCase& load_case = load_cases[index];
@@ -247,6 +302,9 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
         say(warning);
       }
     }
+    if (load_case.definition.surface_contacts.size() > 0) {
+      run.conform = conform_result(spec, model, path.q, path.load_factor, log, say);
+    }
     const solver::PointResults points = solver::evaluate_points(model, path.q, path.load_factor);
     if (!points.status.ok()) {
       throw std::runtime_error("the last converged state could not be evaluated: " +
@@ -260,6 +318,7 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
                       layers[i].far_field_strain));
     }
     evaluations.push_back(std::move(layers));
+    last_points = points;
     if (spec.report.profiles.value) {
       const std::string name = index == 0 ? std::string("profiles.csv")
                                           : "profiles-" + std::to_string(index + 1) + ".csv";
@@ -279,6 +338,45 @@ RunOutcome run_case(const CaseSpec& spec, const RunOptions& options) {
   }
 
   run.layers = envelope(evaluations);
+  if (run.conform) {
+    for (const LayerResult& layer : run.layers) {
+      run.conform->required_strain.push_back({layer.name, layer.peak_strain, layer.peak_at, layer.min_strain});
+    }
+  }
+  if (local_checks && run.completed) {
+    log.flush();
+    for (LocalCellPlan& plan : plan_local_cells(spec_as_given, last_points, run.layers)) {
+      const std::string label = "local " + std::to_string(plan.defect_index);
+      const std::string state = format("major %.4g, minor %.4g", plan.major, plan.minor) + " at r = " +
+                                format("%.4g", plan.at[0]) + " um";
+      log.line(label + ": defect " + std::to_string(plan.defect_index) + " in a " +
+               shape_name(plan.cell.geometry.shape.value) + " cell of width " +
+               format("%.4g", plan.cell.geometry.width.value) + " um, loaded with the in-plane state " + state);
+      say(label + ": " + shape_name(plan.cell.geometry.shape.value) + " cell, " + state);
+      plan.cell.source = spec_as_given.source;
+      RunOptions cell_options = options;
+      cell_options.out = options.out / ("local-" + std::to_string(plan.defect_index));
+      cell_options.progress = [&](const std::string& text) { say("  " + label + ": " + text); };
+      const RunOutcome cell = run_case(plan.cell, cell_options);
+      LocalCheck check;
+      check.defect_index = plan.defect_index;
+      check.applied_major = plan.major;
+      check.applied_minor = plan.minor;
+      check.applied_at = plan.at;
+      check.layers = cell.results.layers;
+      run.local.push_back(std::move(check));
+      run.solver.increments += cell.results.solver.increments;
+      run.solver.newton_iterations += cell.results.solver.newton_iterations;
+      run.solver.cutbacks += cell.results.solver.cutbacks;
+      if (!cell.results.completed) {
+        run.completed = false;
+        run.message = label + ": " + cell.results.message;
+        log.line(run.message);
+        break;
+      }
+      log.line(label + ": done, results in " + cell_options.out.filename().string() + "/");
+    }
+  }
   run.solver.seconds = seconds_since(start);
   log.line(format("finished in %.2f s", run.solver.seconds));
 

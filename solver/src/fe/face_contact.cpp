@@ -10,22 +10,13 @@
 #include <stdexcept>
 
 namespace plystrain::solver {
-namespace {
-
-struct FaceNode {
-  Eigen::Vector2d normal = Eigen::Vector2d::Zero();  // area-weighted sum, normalised at the end
-  double area = 0.0;
-  double spacing = 0.0;
-  double modulus = 0.0;
-};
-
 // Per node of a face: the integral of its shape function over the face (its
 // share of the area), its share of the length and the outward normal of the
 // face's material. Edges have that material on their left (mesh.hpp), so the
 // outward normal is the tangent turned clockwise.
-std::map<int, FaceNode> face_nodes(const mesh::Mesh& mesh, const std::vector<mesh::Edge>& edges,
+std::map<int, FaceNodeShare> face_node_shares(const mesh::Mesh& mesh, const std::vector<mesh::Edge>& edges,
                                    bool axisymmetric, const std::vector<double>& youngs_modulus_of_cell) {
-  std::map<int, FaceNode> nodes;
+  std::map<int, FaceNodeShare> nodes;
   for (const mesh::Edge& edge : edges) {
     const int n = edge.node_count;
     const double modulus =
@@ -44,7 +35,7 @@ std::map<int, FaceNode> face_nodes(const mesh::Mesh& mesh, const std::vector<mes
       const double ring = axisymmetric ? 2.0 * std::numbers::pi * position.x() : 1.0;
       const Eigen::Vector2d outward(tangent.y(), -tangent.x());
       for (int a = 0; a < n; ++a) {
-        FaceNode& node = nodes[edge.nodes[static_cast<std::size_t>(a)]];
+        FaceNodeShare& node = nodes[edge.nodes[static_cast<std::size_t>(a)]];
         node.area += N(a) * length * ring;
         node.spacing += N(a) * length;
         node.normal += N(a) * lp.weight * outward;
@@ -61,7 +52,6 @@ std::map<int, FaceNode> face_nodes(const mesh::Mesh& mesh, const std::vector<mes
   return nodes;
 }
 
-}  // namespace
 
 std::vector<ContactNodePair> pair_contact_nodes(const mesh::Mesh& mesh, const std::vector<mesh::Edge>& lower_edges,
                                                 const std::vector<mesh::Edge>& upper_edges, double penalty_factor,
@@ -75,8 +65,8 @@ std::vector<ContactNodePair> pair_contact_nodes(const mesh::Mesh& mesh, const st
     extent = std::max(extent, x.cwiseAbs().maxCoeff());
   }
   const double tolerance = 1e-9 * std::max(extent, 1e-300);
-  const std::map<int, FaceNode> lower = face_nodes(mesh, lower_edges, axisymmetric, youngs_modulus_of_cell);
-  const std::map<int, FaceNode> upper = face_nodes(mesh, upper_edges, axisymmetric, youngs_modulus_of_cell);
+  const std::map<int, FaceNodeShare> lower = face_node_shares(mesh, lower_edges, axisymmetric, youngs_modulus_of_cell);
+  const std::map<int, FaceNodeShare> upper = face_node_shares(mesh, upper_edges, axisymmetric, youngs_modulus_of_cell);
   // Partners by position: sort the lower nodes along x (the faces are
   // interface spans, one value of z per x).
   std::vector<std::pair<double, int>> by_x;
@@ -104,7 +94,7 @@ std::vector<ContactNodePair> pair_contact_nodes(const mesh::Mesh& mesh, const st
     if (partner == upper_index) {
       continue;  // a node shared by both faces (the bonded end of the span) cannot open
     }
-    const FaceNode& lower_node = lower.at(partner);
+    const FaceNodeShare& lower_node = lower.at(partner);
     ContactNodePair pair;
     pair.lower = partner;
     pair.upper = upper_index;

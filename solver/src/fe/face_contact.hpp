@@ -8,10 +8,27 @@
 #include <Eigen/Core>
 
 #include <array>
+#include <map>
 #include <string>
 #include <vector>
 
 namespace plystrain::solver {
+
+// What a node of a face carries: its share of the face's area (the
+// integral of its shape function over the face; times 2 pi r when
+// axisymmetric), its share of the length, the outward normal of the face's
+// material there and the largest Young's modulus of the cells it touches.
+struct FaceNodeShare {
+  Eigen::Vector2d normal = Eigen::Vector2d::Zero();
+  double area = 0.0;
+  double spacing = 0.0;
+  double modulus = 0.0;
+};
+
+// Per node of the face made by `edges` (edges have their material on the left).
+[[nodiscard]] std::map<int, FaceNodeShare> face_node_shares(const mesh::Mesh& mesh,
+                                                            const std::vector<mesh::Edge>& edges, bool axisymmetric,
+                                                            const std::vector<double>& youngs_modulus_of_cell);
 
 // One upper-face node facing one lower-face node.
 struct ContactNodePair {

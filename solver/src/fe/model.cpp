@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <map>
 #include <sstream>
 #include <stdexcept>
 
@@ -290,8 +291,8 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       traction_variables.push_back(edge_variables(edge));
     }
   }
-  if (!definition.contacts.empty()) {
-    std::vector<double> youngs_modulus_of_cell;
+  std::vector<double> youngs_modulus_of_cell;
+  if (!definition.contacts.empty() || !definition.surface_contacts.empty()) {
     youngs_modulus_of_cell.reserve(mesh.cells.size());
     for (const mesh::Cell& cell : mesh.cells) {
       const materials::LawParameters& law = definition.regions[static_cast<std::size_t>(cell.region)].law;
@@ -299,6 +300,8 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       const double kappa = materials::initial_bulk_modulus(law);
       youngs_modulus_of_cell.push_back(9.0 * kappa * mu / (3.0 * kappa + mu));
     }
+  }
+  if (!definition.contacts.empty()) {
     for (const FaceContact& contact : definition.contacts) {
       const std::string what =
           "contact between '" + contact.lower_edge_set + "' and '" + contact.upper_edge_set + "'";
@@ -317,6 +320,31 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       const std::array<int, 4> vars = contact_variables(pair);
       blocks.emplace_back(vars.begin(), vars.end());
     }
+  }
+  for (std::size_t k = 0; k < definition.surface_contacts.size(); ++k) {
+    const SurfaceContact& contact = definition.surface_contacts[k];
+    const std::string what = "contact of '" + contact.edge_set + "' with a rigid surface";
+    if (!(contact.penalty_factor > 0.0)) {
+      throw std::invalid_argument(what + ": the penalty factor must be positive");
+    }
+    const std::map<int, FaceNodeShare> shares =
+        face_node_shares(mesh, require_edge_set(mesh, contact.edge_set, what), axisymmetric, youngs_modulus_of_cell);
+    for (const auto& [node, share] : shares) {
+      SurfaceContactNode entry;
+      entry.node = node;
+      entry.contact = static_cast<int>(k);
+      entry.area = share.area;
+      entry.spacing = share.spacing;
+      entry.stiffness = contact.penalty_factor * share.modulus / std::max(share.spacing, 1e-300) * share.area;
+      surface_nodes.push_back(entry);
+    }
+  }
+  // Unilateral faces start open: the surface comes to them.
+  surface_states.assign(surface_nodes.size(), SurfaceNodeState{});
+  accepted_surface_states = surface_states;
+  surface_block_begin = static_cast<int>(blocks.size());
+  for (const SurfaceContactNode& node : surface_nodes) {
+    blocks.push_back({variable(node.node, 0), variable(node.node, 1)});
   }
   symmetric = pressure_edges.empty();
   assembly = AssemblyPattern(constraints, blocks);
@@ -463,6 +491,21 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
       }
     }
   }
+  for (std::size_t k = 0; k < surface_nodes.size(); ++k) {
+    const SurfaceContactNode& node = surface_nodes[k];
+    const SurfaceContact& contact = definition.surface_contacts[static_cast<std::size_t>(node.contact)];
+    const Eigen::Vector2d x = mesh.nodes[static_cast<std::size_t>(node.node)] +
+                              Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    Eigen::Vector2d f;
+    Eigen::Matrix2d stiffness;
+    if (surface_node_forces(contact, node, surface_states[k], placement_at(contact, load_factor), x, f, stiffness)) {
+      const int block = surface_block_begin + static_cast<int>(k);
+      assembly.scatter_vector(block, f.data(), 2, forces);
+      if (tangent) {
+        assembly.scatter_matrix(block, stiffness.data(), 2, values);
+      }
+    }
+  }
   if (gps) {
     forces(out_of_plane_variable) -= definition.out_of_plane.resultant.at(load_factor);
   }
@@ -510,7 +553,7 @@ const std::vector<std::string>& Model::warnings() const { return impl_->warnings
 
 bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
   ModelImpl& impl = *impl_;
-  if (impl.contact_pairs.empty()) {
+  if (impl.contact_pairs.empty() && impl.surface_nodes.empty()) {
     return false;
   }
   // Past this many changes in one attempt the set is left as it is (and
@@ -545,18 +588,101 @@ bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
       changed = true;
     }
   }
+  for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
+    const SurfaceContactNode& node = impl.surface_nodes[k];
+    const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
+    if (contact.kind == SurfaceContactKind::held_on) {
+      continue;
+    }
+    SurfaceNodeState& state = impl.surface_states[k];
+    if (contact.kind == SurfaceContactKind::bonded && state.closed) {
+      continue;  // stuck for good
+    }
+    const Eigen::Vector2d x = impl.mesh.nodes[static_cast<std::size_t>(node.node)] +
+                              Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    const SurfacePoint nearest = nearest_surface_point(contact, placement_at(contact, load_factor), x);
+    if (state.closed && nearest.gap > tolerance) {
+      state.closed = false;  // lifted off: the surface would pull
+      changed = true;
+    } else if (!state.closed && nearest.gap < -tolerance) {
+      state.closed = true;
+      // Where it touched: the surface point under the node now, which lies
+      // within the increment's own travel of the first touch.
+      state.stick_parameter = nearest.parameter;
+      changed = true;
+    }
+  }
   impl.contact_updates += changed ? 1 : 0;
   return changed;
 }
 
 void Model::accept_increment(const Eigen::VectorXd&, double) {
   impl_->accepted_contact_closed = impl_->contact_closed;
+  impl_->accepted_surface_states = impl_->surface_states;
 }
 
 void Model::begin_attempt() {
   impl_->contact_closed = impl_->accepted_contact_closed;
+  impl_->surface_states = impl_->accepted_surface_states;
   impl_->contact_updates = 0;
   impl_->contact_unsettled = false;
+}
+
+SurfaceContactState Model::surface_contact_state(const Eigen::VectorXd& q, double load_factor) const {
+  const ModelImpl& impl = *impl_;
+  SurfaceContactState state;
+  state.nodes = static_cast<int>(impl.surface_nodes.size());
+  state.unsettled = impl.contact_unsettled;
+  if (impl.surface_nodes.empty()) {
+    return state;
+  }
+  const Eigen::VectorXd z = impl.variables(q, load_factor);
+  double total_area = 0.0;
+  double touching_area = 0.0;
+  double pulling_area = 0.0;
+  for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
+    const SurfaceContactNode& node = impl.surface_nodes[k];
+    const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
+    const Eigen::Vector2d x = impl.mesh.nodes[static_cast<std::size_t>(node.node)] +
+                              Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    const SurfacePlacement at = placement_at(contact, load_factor);
+    total_area += node.area;
+    Eigen::Vector2d force;
+    Eigen::Matrix2d stiffness;
+    if (!surface_node_forces(contact, node, impl.surface_states[k], at, x, force, stiffness)) {
+      continue;
+    }
+    const SurfacePoint nearest = nearest_surface_point(contact, at, x);
+    // The force on the node is -force (the residual holds the node's
+    // internal reaction); pushing means along the outward normal.
+    const double normal_force = -force.dot(nearest.normal);
+    if (normal_force >= 0.0) {
+      ++state.touching;
+      touching_area += node.area;
+      state.max_pressure = std::max(state.max_pressure, normal_force / std::max(node.area, 1e-300));
+    } else {
+      ++state.pulling;
+      pulling_area += node.area;
+    }
+    const double penetration = std::max(0.0, -nearest.gap);
+    state.max_penetration = std::max(state.max_penetration, penetration);
+    state.max_penetration_to_spacing =
+        std::max(state.max_penetration_to_spacing, penetration / std::max(node.spacing, 1e-300));
+  }
+  state.touching_fraction = touching_area / std::max(total_area, 1e-300);
+  state.pulling_fraction = pulling_area / std::max(total_area, 1e-300);
+  return state;
+}
+
+std::vector<std::pair<int, bool>> Model::surface_contact_nodes() const {
+  std::vector<std::pair<int, bool>> nodes;
+  for (std::size_t k = 0; k < impl_->surface_nodes.size(); ++k) {
+    const SurfaceContactNode& node = impl_->surface_nodes[k];
+    const bool held = impl_->definition.surface_contacts[static_cast<std::size_t>(node.contact)].kind ==
+                      SurfaceContactKind::held_on;
+    nodes.emplace_back(node.node, held || impl_->surface_states[k].closed);
+  }
+  return nodes;
 }
 
 ContactState Model::contact_state(const Eigen::VectorXd& q, double load_factor) const {

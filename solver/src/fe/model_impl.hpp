@@ -2,6 +2,7 @@
 #pragma once
 
 #include "face_contact.hpp"
+#include "surface_contact.hpp"
 #include "plystrain/solver/assembly.hpp"
 #include "plystrain/solver/constraints.hpp"
 #include "plystrain/solver/elements.hpp"
@@ -47,6 +48,10 @@ class ModelImpl {
   int contact_updates = 0;         // changes of the set in the current attempt
   bool contact_unsettled = false;  // the set was still changing when the updates stopped
   int contact_block_begin = 0;  // assembly block of the first contact pair
+  std::vector<SurfaceContactNode> surface_nodes;
+  std::vector<SurfaceNodeState> surface_states;           // used by evaluate
+  std::vector<SurfaceNodeState> accepted_surface_states;  // as accepted with the last increment
+  int surface_block_begin = 0;
   int variable_count = 0;
   int out_of_plane_variable = -1;  // e3 (generalized plane strain)
   ConstraintSet constraints;

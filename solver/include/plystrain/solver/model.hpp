@@ -15,6 +15,7 @@
 #include "plystrain/materials/law.hpp"
 #include "plystrain/mesh/mesh.hpp"
 #include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/solver/rigid_surface.hpp"
 
 #include <Eigen/Core>
 
@@ -137,6 +138,33 @@ struct FaceContact {
   double penalty_factor = 1e3;
 };
 
+// Contact of a face with a rigid surface of revolution (axisymmetric
+// models). The surface's apex sits at (0, lift(lambda)) and its meridian is
+// flattened in height by height_scale(lambda) (1 = the surface as given).
+//
+//   held_on       the face stays on the surface and slides on it without
+//                 friction (the device is laid onto it and held there; the
+//                 surface may pull as well as push: contact_state reports
+//                 where it pulls);
+//   frictionless  unilateral: the face may touch and slide, or lift off;
+//   bonded        unilateral, and a node that touches sticks to the surface
+//                 point it touched, for good.
+//
+// Method: node-to-surface penalty on the face's nodes, with the nearest
+// point of the meridian (a closest-point projection, so the normal and the
+// consistent tangent follow the curved surface exactly). The stiffness per
+// node is k w with k = penalty_factor E / h as for FaceContact.
+enum class SurfaceContactKind { held_on, frictionless, bonded };
+
+struct SurfaceContact {
+  std::string edge_set;
+  RigidSurface surface;
+  ScaledValue height_scale;
+  ScaledValue lift;
+  SurfaceContactKind kind = SurfaceContactKind::frictionless;
+  double penalty_factor = 1e3;
+};
+
 // Generalized plane strain only: with no prescribed strain, e3 is a free
 // unknown fixed by the out-of-plane resultant (the integral of P33 over the
 // section, per unit depth) equalling `resultant` (0 = free contraction).
@@ -160,6 +188,7 @@ struct ModelDefinition {
   std::vector<FollowerPressure> pressures;
   std::vector<DeadTraction> tractions;
   std::vector<FaceContact> contacts;
+  std::vector<SurfaceContact> surface_contacts;
   int threads = 0;  // OpenMP threads for the element loop; 0 = the OpenMP default
 };
 
@@ -179,6 +208,19 @@ struct ContactState {
   double max_slip = 0.0;          // largest relative tangential displacement (length)
   double max_slip_to_spacing = 0.0;  // the same over the pair's node spacing along the face
   bool unsettled = false;  // the last attempt stopped updating a set that was still changing
+};
+
+// The faces on rigid surfaces at a state, for reports.
+struct SurfaceContactState {
+  int nodes = 0;
+  int touching = 0;              // nodes pressed onto the surface (closed and pushing)
+  double touching_fraction = 0.0;  // their share of the face's area
+  int pulling = 0;               // held_on only: nodes the surface holds by pulling
+  double pulling_fraction = 0.0;
+  double max_penetration = 0.0;  // largest penetration of a node into the surface (length)
+  double max_penetration_to_spacing = 0.0;  // the same over that node's spacing along the face
+  double max_pressure = 0.0;     // largest normal contact force per unit face area (stress)
+  bool unsettled = false;
 };
 
 // Per-cell record used by post-processing.
@@ -238,6 +280,11 @@ class Model final : public NonlinearSystem {
 
   // The state of the contact faces at (q, lambda); all zero without contact.
   [[nodiscard]] ContactState contact_state(const Eigen::VectorXd& q, double load_factor) const;
+  [[nodiscard]] SurfaceContactState surface_contact_state(const Eigen::VectorXd& q, double load_factor) const;
+
+  // Per node of the surface-contact faces (in the order of the mesh's
+  // node numbers): whether it is in the closed set now.
+  [[nodiscard]] std::vector<std::pair<int, bool>> surface_contact_nodes() const;
 
   // Warnings found while building (e.g. 3-node triangles in a region that
   // needs the locking cure, which they cannot have).
