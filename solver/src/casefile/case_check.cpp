@@ -4,6 +4,8 @@
 
 #include "plystrain/solver/text_distance.hpp"
 
+#include "plystrain/solver/rigid_surface.hpp"
+
 #include <cmath>
 #include <numbers>
 #include <set>
@@ -190,32 +192,12 @@ class CaseChecker {
     return 0.0;
   }
 
+  // The checks the surface itself makes (single-valued, falling, no kinks, an
+  // interpolation that does not rise), reported against the points' line.
   void check_profile() {
     const auto& points = spec_.load.points;
-    if (points.value.size() < 2) {
-      problems_.add(points.where, "load.points", "expected at least two [r, z] points, found " +
-                                                     std::to_string(points.value.size()));
-      return;
-    }
-    if (points.value.front()[0] != 0.0) {
-      problems_.add(points.where, "load.points",
-                    "expected the first point on the axis (r = 0), found r = " +
-                        shown(points.value.front()[0]));
-    }
-    for (std::size_t k = 1; k < points.value.size(); ++k) {
-      if (points.value[k][0] <= points.value[k - 1][0]) {
-        problems_.add(points.where, "load.points",
-                      "expected r to increase, found point " + std::to_string(k + 1) + " at r = " +
-                          shown(points.value[k][0]) + " after r = " + shown(points.value[k - 1][0]));
-        return;
-      }
-      if (points.value[k][1] > points.value[k - 1][1]) {
-        problems_.add(points.where, "load.points",
-                      "expected z not to increase away from the apex, found point " +
-                          std::to_string(k + 1) + " at z = " + shown(points.value[k][1]) +
-                          " above z = " + shown(points.value[k - 1][1]));
-        return;
-      }
+    if (const std::optional<std::string> problem = solver::RigidSurface::profile_problem(points.value)) {
+      problems_.add(points.where, "load.points", *problem);
     }
   }
 

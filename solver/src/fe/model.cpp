@@ -327,15 +327,29 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     if (!(contact.penalty_factor > 0.0)) {
       throw std::invalid_argument(what + ": the penalty factor must be positive");
     }
-    const std::map<int, FaceNodeShare> shares =
-        face_node_shares(mesh, require_edge_set(mesh, contact.edge_set, what), axisymmetric, youngs_modulus_of_cell);
+    const std::vector<mesh::Edge>& edges = require_edge_set(mesh, contact.edge_set, what);
+    const std::map<int, FaceNodeShare> shares = face_node_shares(mesh, edges, axisymmetric, youngs_modulus_of_cell);
+    // The length scale of the penalty is the length of the edges a node
+    // lies on (not its share of them, which differs between corner and
+    // mid-side nodes): a uniform pressure then gives a uniform penetration
+    // p h / (penalty_factor E).
+    std::map<int, double> edge_length;
+    for (const mesh::Edge& edge : edges) {
+      const Eigen::Vector2d first = mesh.nodes[static_cast<std::size_t>(edge.nodes[0])];
+      const Eigen::Vector2d second = mesh.nodes[static_cast<std::size_t>(edge.nodes[1])];
+      const double length = (second - first).norm();
+      for (int a = 0; a < edge.node_count; ++a) {
+        double& longest = edge_length[edge.nodes[static_cast<std::size_t>(a)]];
+        longest = std::max(longest, length);
+      }
+    }
     for (const auto& [node, share] : shares) {
       SurfaceContactNode entry;
       entry.node = node;
       entry.contact = static_cast<int>(k);
       entry.area = share.area;
-      entry.spacing = share.spacing;
-      entry.stiffness = contact.penalty_factor * share.modulus / std::max(share.spacing, 1e-300) * share.area;
+      entry.spacing = std::max(edge_length[node], 1e-300);
+      entry.stiffness = contact.penalty_factor * share.modulus / entry.spacing * share.area;
       surface_nodes.push_back(entry);
     }
   }

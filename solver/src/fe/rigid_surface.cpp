@@ -17,9 +17,11 @@ std::string number(double value) {
 }
 
 // Second derivatives of the cubic spline through (r, z), with zero slope at
-// the apex (the surface of revolution is smooth on its axis) and no curvature
-// at the last point (a natural end, so the straight continuation beyond it
-// joins with continuous slope and curvature).
+// the apex (the surface of revolution is smooth on its axis) and, at the last
+// point, the slope of the parabola through the last three points (a natural
+// end, with no curvature, would bend the meridian wrongly over the last
+// interval of a curved mould). Beyond the last point the meridian continues
+// straight with that slope.
 std::vector<double> spline_second_derivatives(const std::vector<double>& r, const std::vector<double>& z) {
   const std::size_t n = r.size();
   std::vector<double> diagonal(n, 0.0), upper(n, 0.0), lower(n, 0.0), rhs(n, 0.0);
@@ -35,8 +37,17 @@ std::vector<double> spline_second_derivatives(const std::vector<double>& r, cons
     upper[i] = right;
     rhs[i] = 6.0 * ((z[i + 1] - z[i]) / right - (z[i] - z[i - 1]) / left);
   }
-  diagonal[n - 1] = 1.0;
-  rhs[n - 1] = 0.0;
+  const double last = r[n - 1] - r[n - 2];
+  double end_slope = (z[n - 1] - z[n - 2]) / last;
+  if (n >= 3) {
+    const double before = r[n - 2] - r[n - 3];
+    const double slope_before = (z[n - 2] - z[n - 3]) / before;
+    // Derivative at the last point of the parabola through the last three.
+    end_slope += (end_slope - slope_before) * last / (last + before);
+  }
+  lower[n - 1] = last;
+  diagonal[n - 1] = 2.0 * last;
+  rhs[n - 1] = 6.0 * (end_slope - (z[n - 1] - z[n - 2]) / last);
   // Thomas algorithm: the system is diagonally dominant.
   for (std::size_t i = 1; i < n; ++i) {
     const double factor = lower[i] / diagonal[i - 1];

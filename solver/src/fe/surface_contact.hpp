@@ -14,7 +14,7 @@ struct SurfaceContactNode {
   int contact = 0;         // index into the definition's surface_contacts
   double stiffness = 0.0;  // k w: force per unit penetration
   double area = 0.0;       // w: the node's share of the face
-  double spacing = 0.0;    // its share of the face's length
+  double spacing = 0.0;    // length of the longest face edge it lies on
 };
 
 // Where the surface is at a load factor.

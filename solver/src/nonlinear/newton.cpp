@@ -80,13 +80,14 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
   if (!std::isfinite(residual_norm)) {
     return fail(NewtonStatus::non_finite, "non-finite residual at the start point");
   }
-  const double residual_reference = std::max(residual_norm, reference_residual);
-  const double residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
+  double residual_reference = std::max(residual_norm, reference_residual);
+  double residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
   double increment_reference = 0.0;
   double last_increment = infinity;
   double previous_residual_norm = residual_norm;
 
   std::vector<double> history;  // residual norm at the start of each iteration
+  std::size_t equations_since = 0;  // index in history of the first iteration on the current equations
   for (int iteration = 0;; ++iteration) {
     history.push_back(residual_norm);
     record.iteration = iteration;
@@ -130,6 +131,13 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
         last_increment = infinity;
         record.residual_norm = residual_norm;
         result.residual_norm = residual_norm;
+        // New equations: their own start residual is the scale (a contact
+        // that closes from a force-free state starts from nothing), and the
+        // progress rule starts over.
+        residual_reference = std::max(residual_reference, residual_norm);
+        residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
+        history.back() = residual_norm;
+        equations_since = history.size() - 1;
       } else {
         result.iterations.push_back(record);
         if (on_iteration) {
@@ -145,14 +153,14 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
                                                      " iterations (residual " + std::to_string(residual_norm) + ")");
     }
     // Not near rounding level, where halving is not to be expected.
-    if (options.progress_window > 0 && iteration >= options.progress_window &&
+    const std::size_t window_start =
+        static_cast<std::size_t>(iteration) - static_cast<std::size_t>(std::max(options.progress_window, 0));
+    if (options.progress_window > 0 && static_cast<std::size_t>(iteration) >= equations_since + static_cast<std::size_t>(options.progress_window) &&
         residual_norm > options.stalled_residual_tolerance * residual_reference &&
-        residual_norm > options.progress_factor *
-                            history[static_cast<std::size_t>(iteration - options.progress_window)]) {
+        residual_norm > options.progress_factor * history[window_start]) {
       result.iterations.push_back(record);
       return fail(NewtonStatus::stagnated,
-                  "the residual fell only from " +
-                      std::to_string(history[static_cast<std::size_t>(iteration - options.progress_window)]) +
+                  "the residual fell only from " + std::to_string(history[window_start]) +
                       " to " + std::to_string(residual_norm) + " in " + std::to_string(options.progress_window) +
                       " iterations");
     }

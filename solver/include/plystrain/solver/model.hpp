@@ -153,7 +153,8 @@ struct FaceContact {
 // Method: node-to-surface penalty on the face's nodes, with the nearest
 // point of the meridian (a closest-point projection, so the normal and the
 // consistent tangent follow the curved surface exactly). The stiffness per
-// node is k w with k = penalty_factor E / h as for FaceContact.
+// node is k w with k = penalty_factor E / h, h the length of the face's
+// edges at the node: a contact pressure p sinks the face by p h / (penalty_factor E).
 enum class SurfaceContactKind { held_on, frictionless, bonded };
 
 struct SurfaceContact {
@@ -218,7 +219,7 @@ struct SurfaceContactState {
   int pulling = 0;               // held_on only: nodes the surface holds by pulling
   double pulling_fraction = 0.0;
   double max_penetration = 0.0;  // largest penetration of a node into the surface (length)
-  double max_penetration_to_spacing = 0.0;  // the same over that node's spacing along the face
+  double max_penetration_to_spacing = 0.0;  // the same over the length of the face's edges there
   double max_pressure = 0.0;     // largest normal contact force per unit face area (stress)
   bool unsettled = false;
 };
