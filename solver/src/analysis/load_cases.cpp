@@ -24,7 +24,9 @@
 #include "plystrain/solver/input_error.hpp"
 #include "plystrain/solver/rigid_surface.hpp"
 
+#include <algorithm>
 #include <cmath>
+#include <numbers>
 #include <limits>
 #include <sstream>
 
@@ -132,6 +134,27 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
       options.ramp_first_fraction = 1e-5;
     }
   }
+  if (spec.load.kind.value == LoadKind::conform) {
+    // Each increment of a conform run moves the edge of the contact zone
+    // over a few nodes, and every change of the touching set costs Newton
+    // another few iterations at the same load: an increment that needed
+    // eight is still an easy one.
+    options.easy_iterations = 8;
+  }
+  // A residual below 1e-11 of the force that would strain the whole section
+  // by 100 % in its stiffest material is rounding: it ends Newton even where
+  // the increment starts from a state that carries no load at all (a press
+  // before the surface has touched).
+  double stiffest = 0.0;
+  for (const solver::RegionDefinition& region : region_laws(spec)) {
+    const double mu = materials::initial_shear_modulus(region.law);
+    const double kappa = materials::initial_bulk_modulus(region.law);
+    stiffest = std::max(stiffest, 9.0 * kappa * mu / (3.0 * kappa + mu));
+  }
+  const double width = spec.geometry.width.value;
+  const double section = spec.total_thickness() * width *
+                         (spec.geometry.shape.value == Shape::disk ? std::numbers::pi * width : 1.0);
+  options.newton.residual_floor = std::max(options.newton.residual_floor, 1e-11 * stiffest * section);
   return options;
 }
 

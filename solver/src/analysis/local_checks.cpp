@@ -70,35 +70,45 @@ CaseSpec local_cell_case(const CaseSpec& spec, std::size_t defect_index, double 
   cell.title.value = spec.title.value + ", local cell of defect " + std::to_string(defect_index + 1);
   DefectSpec centred = defect;
   centred.at.value = 0.0;
+  centred.at.given = true;
   cell.defects = {centred};
   // Wide enough that the defect's disturbance has died out at the loaded
   // edge: ten times its reach in the film, and twice the stack's thickness,
   // over which a substrate spreads a local load.
   const double width = std::max(10.0 * defect_reach(defect), 2.0 * spec.total_thickness());
   cell.geometry.width.value = width;
+  cell.geometry.width.given = true;
   // Every defect of an axisymmetric global model is round (a hole, a thin
   // spot or a debond on the axis), so the state alone chooses the cell.
   const bool equibiaxial = major > 0.0 && minor >= equibiaxial_ratio * major;
   cell.load = LoadSpec{};
   cell.load.where = spec.load.where;
+  // Marked as given: the case as run writes what the cell was given.
   cell.load.kind.value = LoadKind::stretch;
+  cell.load.kind.given = true;
   cell.load.strain.value = major;
+  cell.load.strain.given = true;
   cell.load.steps = spec.load.steps;
   cell.load.max_steps = spec.load.max_steps;
   if (equibiaxial) {
     cell.geometry.shape.value = Shape::disk;
+    cell.geometry.shape.given = true;
   } else {
     cell.geometry.shape.value = Shape::strip;
+    cell.geometry.shape.given = true;
     cell.geometry.symmetric.value = true;
     cell.load.lateral.value.mode = LateralMode::imposed;
     cell.load.lateral.value.strain = minor;
+    cell.load.lateral.given = true;
   }
   // Sizes far from the defect follow the cell, not the device.
   if (!spec.mesh.size_far.given) {
     cell.mesh.size_far.value = std::max(width / 40.0, cell.mesh.size_near.value);
+    cell.mesh.size_far.given = true;
   }
   if (!spec.mesh.grade_over.given) {
     cell.mesh.grade_over.value = 10.0 * cell.mesh.size_far.value;
+    cell.mesh.grade_over.given = true;
   }
   cell.report.out.value.clear();
   return cell;

@@ -176,7 +176,16 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
   RunLog log(options.out / "log.txt");
   const OutputUnit unit{unit_name(spec.units.value), micrometres_per(spec.units.value)};
 
-  const std::string case_text = write_case_toml(spec_as_given);
+  // The case as run names its material files by absolute path, so that it
+  // runs again from the output directory.
+  CaseSpec as_run = spec_as_given;
+  for (Located<std::string>& file : as_run.material_files) {
+    const std::filesystem::path path(file.value);
+    if (path.is_relative()) {
+      file.value = std::filesystem::absolute(spec_as_given.source.parent_path() / path).lexically_normal().string();
+    }
+  }
+  const std::string case_text = write_case_toml(as_run);
   write_file_atomically(options.out / "case.toml", case_text);
 
   RunResults run;

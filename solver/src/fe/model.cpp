@@ -659,6 +659,9 @@ SurfaceContactState Model::surface_contact_state(const Eigen::VectorXd& q, doubl
     const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
     const Eigen::Vector2d x = impl.mesh.nodes[static_cast<std::size_t>(node.node)] +
                               Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    if (!(node.area > 0.0)) {
+      continue;  // on the axis: no ring, no share of the face
+    }
     const SurfacePlacement at = placement_at(contact, load_factor);
     total_area += node.area;
     Eigen::Vector2d force;
