@@ -46,8 +46,15 @@ const solver::PointResult* nearest_point(const solver::PointResults& points, int
 
 double evaluated_extent(const CaseSpec& spec) {
   const double width = spec.geometry.width.value;
-  // The whole width: the loaded edges are consistent with the homogeneous
-  // (stretch) or pure-bending state, so they add no disturbance of their own.
+  // Stretch and bend: the whole width, since the loaded edges are consistent
+  // with the homogeneous or pure-bending state and add no disturbance of
+  // their own. Conform: the rim of the device is a real free edge (wrap) or
+  // a clamp (press), where the layers' mismatch makes a corner singularity
+  // that no mesh converges; the evaluation stops one stack thickness inside
+  // it, beyond which the stack-level strain is the edge's own (theory.md).
+  if (spec.load.kind.value == LoadKind::conform) {
+    return std::max(0.5 * width, width - spec.total_thickness());
+  }
   return width;
 }
 

@@ -182,6 +182,24 @@ class CaseChecker {
     return 0.0;
   }
 
+  // How far the surface falls from its apex to radius r (nothing when the
+  // surface cannot be built: its own problem is reported elsewhere).
+  std::optional<double> surface_drop_at(double r) const {
+    const LoadSpec& load = spec_.load;
+    try {
+      switch (load.surface.value) {
+        case SurfaceKind::sphere:
+          return -solver::RigidSurface::ellipse(load.surface_radius.value, load.surface_radius.value).height_at(r);
+        case SurfaceKind::ellipsoid:
+          return -solver::RigidSurface::ellipse(load.semi_axes.value[0], load.semi_axes.value[1]).height_at(r);
+        case SurfaceKind::profile:
+          return -solver::RigidSurface::profile(load.points.value).height_at(r);
+      }
+    } catch (const std::invalid_argument&) {
+    }
+    return std::nullopt;
+  }
+
   double surface_reach() const {  // largest r the surface covers
     const LoadSpec& load = spec_.load;
     switch (load.surface.value) {
@@ -231,6 +249,14 @@ class CaseChecker {
           problems_.add(load.surface.where, "load.surface",
                         "expected a surface reaching the ring radius " + shown(load.ring.value) +
                             ", found it ends at r = " + shown(surface_reach()));
+        } else if (const std::optional<double> drop = surface_drop_at(load.ring.value);
+                   drop && load.travel.value >= *drop) {
+          // Past this travel the surface is wider than the ring where it
+          // crosses the ring's plane: it would run into the ring itself.
+          problems_.add(load.travel.where, "load.travel",
+                        "expected a travel below " + shown(*drop) +
+                            ", the surface's drop from its apex to the ring radius " + shown(load.ring.value) +
+                            " (further, the surface would hit the ring), found " + shown(load.travel.value));
         }
       }
       if (load.local_at.value && *load.local_at.value > width) {
