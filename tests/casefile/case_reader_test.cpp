@@ -174,7 +174,7 @@ TEST_CASE("every key of a pressed disk is read, in metres", "[casefile][keys]") 
   CHECK(spec.load.surface_radius.value == length(2000.0));
   CHECK(spec.load.method.value == ConformMethod::press);
   CHECK(spec.load.ring.value == length(450.0));
-  CHECK(spec.load.travel.value == length(100.0));
+  CHECK(spec.load.travel.value == length(40.0));
   CHECK(spec.load.contact.value == ContactKind::bonded);
   CHECK_FALSE(spec.load.local.value);
   REQUIRE(spec.load.local_at.value.has_value());
