@@ -83,6 +83,12 @@ double initial_bulk_modulus(const LawParameters& law) {
   return detail::resolved_moduli(law).bulk_modulus;
 }
 
+double initial_youngs_modulus(const LawParameters& law) {
+  const double mu = initial_shear_modulus(law);
+  const double kappa = initial_bulk_modulus(law);
+  return 9.0 * kappa * mu / (3.0 * kappa + mu);
+}
+
 PointResponse evaluate_isochoric(const LawParameters& law, const Eigen::Matrix3d& F, Need need) {
   // One named result on every path, so that it is built in the caller's
   // storage (the 9x9 tangent is most of its size).

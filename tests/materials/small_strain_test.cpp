@@ -81,6 +81,8 @@ TEST_CASE("(E, nu) and (mu, kappa) conversions are inverse and match the textboo
   by_young.poisson_ratio = 0.499;
   CHECK(initial_shear_modulus(by_young) == Approx(1.5 / (2 * 1.499)).epsilon(1e-14));
   CHECK(initial_bulk_modulus(by_young) == Approx(1.5 / (3 * 0.002)).epsilon(1e-12));
+  // ... and gives its Young's modulus back (E = 9 kappa mu / (3 kappa + mu)).
+  CHECK(initial_youngs_modulus(by_young) == Approx(1.5).epsilon(1e-12));
   // Initial shear moduli of the other kinds (Holzapfel, Nonlinear Solid
   // Mechanics, 2000, sec. 6.5): MR 2(c10 + c01), Yeoh 2 c10, Ogden
   // sum(mu_p alpha_p)/2 = 0.4225 MPa for the 1972 fit (verification.md).

@@ -147,9 +147,7 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
   // before the surface has touched).
   double stiffest = 0.0;
   for (const solver::RegionDefinition& region : region_laws(spec)) {
-    const double mu = materials::initial_shear_modulus(region.law);
-    const double kappa = materials::initial_bulk_modulus(region.law);
-    stiffest = std::max(stiffest, 9.0 * kappa * mu / (3.0 * kappa + mu));
+    stiffest = std::max(stiffest, materials::initial_youngs_modulus(region.law));
   }
   const double width = spec.geometry.width.value;
   const double section = spec.total_thickness() * width *

@@ -295,10 +295,8 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
   if (!definition.contacts.empty() || !definition.surface_contacts.empty()) {
     youngs_modulus_of_cell.reserve(mesh.cells.size());
     for (const mesh::Cell& cell : mesh.cells) {
-      const materials::LawParameters& law = definition.regions[static_cast<std::size_t>(cell.region)].law;
-      const double mu = materials::initial_shear_modulus(law);
-      const double kappa = materials::initial_bulk_modulus(law);
-      youngs_modulus_of_cell.push_back(9.0 * kappa * mu / (3.0 * kappa + mu));
+      youngs_modulus_of_cell.push_back(
+          materials::initial_youngs_modulus(definition.regions[static_cast<std::size_t>(cell.region)].law));
     }
   }
   if (!definition.contacts.empty()) {
@@ -508,8 +506,7 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
   for (std::size_t k = 0; k < surface_nodes.size(); ++k) {
     const SurfaceContactNode& node = surface_nodes[k];
     const SurfaceContact& contact = definition.surface_contacts[static_cast<std::size_t>(node.contact)];
-    const Eigen::Vector2d x = mesh.nodes[static_cast<std::size_t>(node.node)] +
-                              Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    const Eigen::Vector2d x = current_position(node.node, z);
     Eigen::Vector2d f;
     Eigen::Matrix2d stiffness;
     if (surface_node_forces(contact, node, surface_states[k], placement_at(contact, load_factor), x, f, stiffness)) {
@@ -612,8 +609,7 @@ bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
     if (contact.kind == SurfaceContactKind::bonded && state.closed) {
       continue;  // stuck for good
     }
-    const Eigen::Vector2d x = impl.mesh.nodes[static_cast<std::size_t>(node.node)] +
-                              Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    const Eigen::Vector2d x = impl.current_position(node.node, z);
     const SurfacePoint nearest = nearest_surface_point(contact, placement_at(contact, load_factor), x);
     if (state.closed && nearest.gap > tolerance) {
       state.closed = false;  // lifted off: the surface would pull
@@ -657,8 +653,7 @@ SurfaceContactState Model::surface_contact_state(const Eigen::VectorXd& q, doubl
   for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
     const SurfaceContactNode& node = impl.surface_nodes[k];
     const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
-    const Eigen::Vector2d x = impl.mesh.nodes[static_cast<std::size_t>(node.node)] +
-                              Eigen::Vector2d(z(2 * node.node), z(2 * node.node + 1));
+    const Eigen::Vector2d x = impl.current_position(node.node, z);
     if (!(node.area > 0.0)) {
       continue;  // on the axis: no ring, no share of the face
     }
@@ -689,17 +684,6 @@ SurfaceContactState Model::surface_contact_state(const Eigen::VectorXd& q, doubl
   state.touching_fraction = touching_area / std::max(total_area, 1e-300);
   state.pulling_fraction = pulling_area / std::max(total_area, 1e-300);
   return state;
-}
-
-std::vector<std::pair<int, bool>> Model::surface_contact_nodes() const {
-  std::vector<std::pair<int, bool>> nodes;
-  for (std::size_t k = 0; k < impl_->surface_nodes.size(); ++k) {
-    const SurfaceContactNode& node = impl_->surface_nodes[k];
-    const bool held = impl_->definition.surface_contacts[static_cast<std::size_t>(node.contact)].kind ==
-                      SurfaceContactKind::held_on;
-    nodes.emplace_back(node.node, held || impl_->surface_states[k].closed);
-  }
-  return nodes;
 }
 
 ContactState Model::contact_state(const Eigen::VectorXd& q, double load_factor) const {

@@ -32,6 +32,10 @@ class ModelImpl {
     return constraints.expand(q, load_factor);
   }
   void gather_cell(int cell, const Eigen::VectorXd& z, CellCoordinates& X, CellVector& dofs) const;
+  // Reference position plus displacement of a node.
+  [[nodiscard]] Eigen::Vector2d current_position(int node, const Eigen::VectorXd& z) const {
+    return mesh.nodes[static_cast<std::size_t>(node)] + Eigen::Vector2d(z(2 * node), z(2 * node + 1));
+  }
 
   [[nodiscard]] int threads() const;
 

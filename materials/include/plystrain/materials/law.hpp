@@ -77,6 +77,8 @@ enum class Need { stress_only, stress_and_tangent };
 // reports and for the small-strain limit checks.
 [[nodiscard]] double initial_shear_modulus(const LawParameters& law);
 [[nodiscard]] double initial_bulk_modulus(const LawParameters& law);
+// 9 kappa mu / (3 kappa + mu), from the two above.
+[[nodiscard]] double initial_youngs_modulus(const LawParameters& law);
 
 // Conversions between (E, nu) and (mu, kappa), 3D isotropic.
 struct ShearBulk {

@@ -283,10 +283,6 @@ class Model final : public NonlinearSystem {
   [[nodiscard]] ContactState contact_state(const Eigen::VectorXd& q, double load_factor) const;
   [[nodiscard]] SurfaceContactState surface_contact_state(const Eigen::VectorXd& q, double load_factor) const;
 
-  // Per node of the surface-contact faces (in the order of the mesh's
-  // node numbers): whether it is in the closed set now.
-  [[nodiscard]] std::vector<std::pair<int, bool>> surface_contact_nodes() const;
-
   // Warnings found while building (e.g. 3-node triangles in a region that
   // needs the locking cure, which they cannot have).
   [[nodiscard]] const std::vector<std::string>& warnings() const;
