@@ -24,24 +24,6 @@ double largest_principal(const Eigen::Matrix3d& tensor) {
   return solver.eigenvalues().maxCoeff();
 }
 
-// The point of `region` nearest to `at` (the disc centre is a point itself).
-const solver::PointResult* nearest_point(const solver::PointResults& points, int region,
-                                         const Eigen::Vector2d& at) {
-  const solver::PointResult* best = nullptr;
-  double best_distance = std::numeric_limits<double>::infinity();
-  for (const solver::PointResult& point : points.points) {
-    if (point.region != region) {
-      continue;
-    }
-    const double distance = (point.position - at).squaredNorm();
-    if (distance < best_distance) {
-      best_distance = distance;
-      best = &point;
-    }
-  }
-  return best;
-}
-
 }  // namespace
 
 double evaluated_extent(const CaseSpec& spec) {
@@ -112,7 +94,7 @@ std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
     result.peak_at = {peak.at.x(), peak.at.y()};
     result.raw_peak_strain = peak.raw_peak;
     result.min_strain = -most_compressive.value;
-    if (const solver::PointResult* at_peak = nearest_point(points, r, peak.at)) {
+    if (const solver::PointResult* at_peak = solver::nearest_point(points, r, peak.at)) {
       result.peak_stress = largest_principal(at_peak->cauchy_stress);
     }
 

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <limits>
 #include <stdexcept>
 
 namespace plystrain {
@@ -24,23 +23,6 @@ double layer_mid_height(const CaseSpec& spec, std::size_t layer) {
     below += spec.layers[i].thickness.value;
   }
   return below + 0.5 * spec.layers[layer].thickness.value;
-}
-
-// The point of a region nearest a reference position.
-const solver::PointResult* nearest_point(const solver::PointResults& points, int region, const Eigen::Vector2d& at) {
-  const solver::PointResult* best = nullptr;
-  double best_distance = std::numeric_limits<double>::infinity();
-  for (const solver::PointResult& point : points.points) {
-    if (point.region != region) {
-      continue;
-    }
-    const double distance = (point.position - at).squaredNorm();
-    if (distance < best_distance) {
-      best_distance = distance;
-      best = &point;
-    }
-  }
-  return best;
 }
 
 // How far the defect reaches from its centre.
@@ -131,7 +113,7 @@ std::vector<LocalCellPlan> plan_local_cells(const CaseSpec& spec, const solver::
       }
       at = Eigen::Vector2d(found->peak_at[0], found->peak_at[1]);
     }
-    const solver::PointResult* point = nearest_point(points, static_cast<int>(layer), at);
+    const solver::PointResult* point = solver::nearest_point(points, static_cast<int>(layer), at);
     if (point == nullptr) {
       throw std::logic_error("local check: layer \"" + defect.host_layer().value + "\" has no points");
     }

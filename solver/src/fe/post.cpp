@@ -156,6 +156,22 @@ RegionNodalField recover_to_nodes(const mesh::Mesh& mesh, const PointResults& re
   return field;
 }
 
+const PointResult* nearest_point(const PointResults& results, int region, const Eigen::Vector2d& at) {
+  const PointResult* best = nullptr;
+  double best_distance = std::numeric_limits<double>::infinity();
+  for (const PointResult& point : results.points) {
+    if (point.region != region) {
+      continue;
+    }
+    const double distance = (point.position - at).squaredNorm();
+    if (distance < best_distance) {
+      best_distance = distance;
+      best = &point;
+    }
+  }
+  return best;
+}
+
 DiscPeak max_disc_average(const PointResults& results, int region, double radius,
                           const std::function<double(const PointResult&)>& quantity) {
   DiscPeak peak;

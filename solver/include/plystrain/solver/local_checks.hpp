@@ -6,10 +6,10 @@
 // The cell: a disk (equibiaxial stretch by the major strain) when the defect
 // is circular and the state near-equibiaxial (minor/major >= 0.9), otherwise
 // a symmetric strip stretched by the major strain with the minor strain
-// imposed across it. Only the membrane state is passed on: the bending of
-// the global stack across the cell's width is left out, which is exact in
-// the limit of a thin layer far from the neutral plane's curvature change
-// and conservative-neutral otherwise (docs/theory.md).
+// imposed across it. Only the membrane state of the defect's layer is
+// passed on: the curvature of the device across the cell's width is left
+// out, which is a good approximation for a cell much narrower than the
+// surface's radius (docs/theory.md).
 #pragma once
 
 #include "plystrain/solver/case_spec.hpp"

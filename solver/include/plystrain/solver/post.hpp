@@ -78,6 +78,10 @@ struct DiscPeak {
   int points = 0;                                    // points of the region
 };
 
+// The point of `region` nearest to the reference position `at`; null when
+// the region has no points.
+[[nodiscard]] const PointResult* nearest_point(const PointResults& results, int region, const Eigen::Vector2d& at);
+
 [[nodiscard]] DiscPeak max_disc_average(const PointResults& results, int region, double radius,
                                         const std::function<double(const PointResult&)>& quantity);
 
