@@ -153,14 +153,15 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
                                                      " iterations (residual " + std::to_string(residual_norm) + ")");
     }
     // Not near rounding level, where halving is not to be expected.
-    const std::size_t window_start =
-        static_cast<std::size_t>(iteration) - static_cast<std::size_t>(std::max(options.progress_window, 0));
-    if (options.progress_window > 0 && static_cast<std::size_t>(iteration) >= equations_since + static_cast<std::size_t>(options.progress_window) &&
+    // The window counts only iterations on the current equations.
+    const std::size_t window = static_cast<std::size_t>(std::max(options.progress_window, 0));
+    const std::size_t current = history.size() - 1;
+    if (window > 0 && current >= equations_since + window &&
         residual_norm > options.stalled_residual_tolerance * residual_reference &&
-        residual_norm > options.progress_factor * history[window_start]) {
+        residual_norm > options.progress_factor * history[current - window]) {
       result.iterations.push_back(record);
       return fail(NewtonStatus::stagnated,
-                  "the residual fell only from " + std::to_string(history[window_start]) +
+                  "the residual fell only from " + std::to_string(history[current - window]) +
                       " to " + std::to_string(residual_norm) + " in " + std::to_string(options.progress_window) +
                       " iterations");
     }
