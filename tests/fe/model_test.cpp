@@ -73,23 +73,9 @@ TEST_CASE("global tangent equals the finite difference of the global residual", 
   CHECK(model.region_treatments()[0].mixed);
   CHECK_FALSE(model.region_treatments()[1].mixed);
 
-  const Eigen::VectorXd q = trial_q(model.size(), 0.01);
-  const double lambda = 0.7;
-  Eigen::VectorXd r;
-  solver::SparseMatrix K;
-  REQUIRE(model.evaluate(q, lambda, r, &K).ok());
-  const Eigen::MatrixXd dense = Eigen::MatrixXd(K);
-  double worst = 0.0;
-  const double h = 1e-6;
-  for (int j = 0; j < model.size(); ++j) {
-    Eigen::VectorXd qp = q, qm = q, rp, rm;
-    qp(j) += h;
-    qm(j) -= h;
-    REQUIRE(model.evaluate(qp, lambda, rp, nullptr).ok());
-    REQUIRE(model.evaluate(qm, lambda, rm, nullptr).ok());
-    worst = std::max(worst, ((rp - rm) / (2 * h) - dense.col(j)).cwiseAbs().maxCoeff());
-  }
-  CHECK(worst < 1e-6 * dense.cwiseAbs().maxCoeff());
+  const test::TangentComparison comparison =
+      test::compare_tangent_with_differences(model, trial_q(model.size(), 0.01), 0.7, 1e-6);
+  CHECK(comparison.worst_difference < 1e-6 * comparison.largest_entry);
 }
 
 TEST_CASE("the tangent's pattern is built once and reused", "[fe][model]") {

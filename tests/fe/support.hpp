@@ -1,5 +1,6 @@
 // Test helpers for the finite-element core: a plain Newton loop on a model
-// (sparse LDL' or LU from Eigen, with a backtracking step) and small law constructors.
+// (sparse LDL' or LU from Eigen, with a backtracking step), small law
+// constructors and the finite-difference check of a model's tangent.
 #pragma once
 
 #include "plystrain/materials/law.hpp"
@@ -8,11 +9,44 @@
 #include <Eigen/SparseCholesky>
 #include <Eigen/SparseLU>
 
+#include <algorithm>
 #include <limits>
 #include <stdexcept>
 #include <string>
 
 namespace plystrain::test {
+
+// The model's tangent at (q, lambda) against central differences of its
+// residual with step h (common practice for consistent tangents): the
+// largest entry of the difference, and the largest entry of the tangent to
+// compare it with. Throws when an evaluation fails.
+struct TangentComparison {
+  double worst_difference = 0.0;
+  double largest_entry = 0.0;
+};
+
+inline TangentComparison compare_tangent_with_differences(solver::Model& model, const Eigen::VectorXd& q,
+                                                          double load_factor, double h) {
+  Eigen::VectorXd r;
+  solver::SparseMatrix K;
+  if (!model.evaluate(q, load_factor, r, &K).ok()) {
+    throw std::runtime_error("tangent check: the evaluation at q failed");
+  }
+  const Eigen::MatrixXd dense(K);
+  TangentComparison comparison;
+  comparison.largest_entry = dense.cwiseAbs().maxCoeff();
+  for (int j = 0; j < model.size(); ++j) {
+    Eigen::VectorXd qp = q, qm = q, rp, rm;
+    qp(j) += h;
+    qm(j) -= h;
+    if (!model.evaluate(qp, load_factor, rp, nullptr).ok() || !model.evaluate(qm, load_factor, rm, nullptr).ok()) {
+      throw std::runtime_error("tangent check: an evaluation beside q failed");
+    }
+    comparison.worst_difference =
+        std::max(comparison.worst_difference, ((rp - rm) / (2 * h) - dense.col(j)).cwiseAbs().maxCoeff());
+  }
+  return comparison;
+}
 
 inline materials::LawParameters neo_hookean(double shear_modulus, double bulk_modulus) {
   materials::LawParameters law;
