@@ -26,8 +26,8 @@
 
 #include <algorithm>
 #include <cmath>
-#include <numbers>
 #include <limits>
+#include <numbers>
 #include <sstream>
 
 namespace plystrain {

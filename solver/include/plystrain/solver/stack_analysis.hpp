@@ -1,5 +1,5 @@
 // Stack analyses: from a checked case and its mesh to the model definitions
-// of each solve (stretch; bend to one or more radii), and from a solved state
+// of each solve (stretch; bend to one or more radii; conform), and from a solved state
 // to the per-layer verdicts, profiles and field snapshots of results-format.md.
 // No files and no terminal here: the run pipeline does those.
 #pragma once
@@ -28,8 +28,10 @@ struct LoadCase {
 // the thickness: one node on the bottom face, nearest to x = 0.
 inline constexpr const char* anchor_node_set = "anchor";
 
-// Adds the anchor node set to `mesh` and returns one LoadCase per solve.
-// Throws InputError for a load this analysis cannot run (conform).
+// Adds the anchor node set (and, for a press with a ring inside the rim,
+// the "ring-clamp" node set) to `mesh` and returns one LoadCase per solve.
+// Throws InputError for a profile surface that cannot be built or a ring
+// with no bottom-face node outside it.
 [[nodiscard]] std::vector<LoadCase> build_load_cases(const CaseSpec& spec, mesh::Mesh& mesh);
 
 // The modelled kinematics for the report ("free", "held", a number, or "").
