@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <exception>
+#include <limits>
 #include <stdexcept>
 #include <string>
 #include <utility>
@@ -53,10 +54,6 @@ void check_options(const LoadStepperOptions& options, int size) {
   }
 }
 
-bool increment_was_easy(const NewtonResult& newton, int easy_iterations) {
-  return static_cast<int>(newton.iterations.size()) - 1 <= easy_iterations;
-}
-
 }  // namespace
 
 const char* status_name(PathStatus status) {
@@ -85,6 +82,13 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
   std::optional<PathPoint> previous;
   double position = 0.0;
   double last_size = 0.0;
+  // Growth after a cut-back stops short of the size that failed, and the
+  // ceiling lifts only slowly: otherwise growth leads straight back into the
+  // same failure, each one costing several indefinite factorizations.
+  double growth_ceiling = std::numeric_limits<double>::infinity();
+  constexpr double ceiling_below_failure = 0.7;
+  constexpr double ceiling_lift = 1.1;
+  const double shrink_floor = 0.25 * nominal;
   double q_scale = 1.0;  // arc-length scaling of q, set after the first increment
   const double controlled_start =
       options.control == ControlMode::displacement ? q_start(options.controlled_unknown) : 0.0;
@@ -117,6 +121,28 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
       return false;
     }
     q = current.q + change;
+    // Near a defect the path q(lambda) bends sharply (large local rotations),
+    // and the straight tangent step lands far from it. The quadratic through
+    // the previous converged state with the tangent slope at the current one
+    // follows that bend; it is kept only where its residual is the smaller,
+    // and only up to twice the span it was fitted over (a geometric ramp's
+    // threefold step extrapolates the bend too far).
+    constexpr double longest_extrapolation = 2.0;
+    const double last_load_step = previous ? current.load_factor - previous->load_factor : 0.0;
+    const double ratio = last_load_step != 0.0 ? load_step / last_load_step : 0.0;
+    if (previous && ratio > 0.0 && ratio <= longest_extrapolation) {
+      Eigen::VectorXd curved = q + (ratio * ratio) * (previous->q - current.q + change / ratio);
+      const double target_load = current.load_factor + load_step;
+      Eigen::VectorXd trial_residual;
+      const auto norm_at = [&](const Eigen::VectorXd& point) {
+        const Evaluation evaluation = system.evaluate(point, target_load, trial_residual, nullptr);
+        const double norm = evaluation.ok() ? trial_residual.norm() : std::numeric_limits<double>::infinity();
+        return std::isfinite(norm) ? norm : std::numeric_limits<double>::infinity();
+      };
+      if (norm_at(curved) < norm_at(q)) {
+        q.swap(curved);
+      }
+    }
     return true;
   };
 
@@ -291,9 +317,20 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
         return finish(PathStatus::stopped_by_caller, "stopped after increment " +
                                                          std::to_string(result.increments.size()));
       }
-      if (increment_was_easy(newton, options.easy_iterations)) {
+      const int iterations = static_cast<int>(newton.iterations.size()) - 1;
+      if (iterations <= options.easy_iterations) {
         size = ramping ? std::min(size * options.ramp_growth_factor, nominal) : size * options.growth_factor;
-        size = std::min(size, options.max_increment);
+        size = std::min({size, options.max_increment, std::max(growth_ceiling, attempted_size)});
+        growth_ceiling *= ceiling_lift;
+      } else {
+        // A hard increment warns that the next one of the same size may fail
+        // outright; Newton's work grows roughly with the square of the step
+        // beyond its basin, hence the square root. Where the count does not
+        // fall with the size (a strict tolerance, contact chatter) shrinking
+        // would stall the path, so it stops at a quarter of the nominal size.
+        const double shrink = std::max(options.cutback_factor,
+                                       std::sqrt(static_cast<double>(options.easy_iterations) / iterations));
+        size = std::max(size * shrink, std::min(size, shrink_floor));
       }
       ramping = ramping && size < nominal;
       continue;
@@ -312,6 +349,7 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
     newton.q.resize(0);
     result.last_failure = std::move(newton);
     size = failure.next_increment;
+    growth_ceiling = ceiling_below_failure * attempted_size;
     ramping = false;
     if (size < options.min_increment) {
       return finish(PathStatus::increment_too_small,
