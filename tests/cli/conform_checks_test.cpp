@@ -136,10 +136,15 @@ TEST_CASE("press: a thin sheet follows the membrane solution, and bonded contact
   const std::filesystem::path out = run_to("compare", "press-sheet.toml", "press-sheet");
   const std::vector<ProfileRow> frictionless = read_profiles(out / "base" / "profiles.csv");
   const std::vector<ProfileRow> bonded = read_profiles(out / "bonded" / "profiles.csv");
-  const plystrain::test::MembranePressSolution membrane = plystrain::test::solve_membrane_press(1000.0, 1000.0, 400.0);
+  // Ring radius, sphere radius and travel of press-sheet.toml, in um.
+  constexpr double ring_radius = 1000.0;
+  constexpr double sphere_radius = 1000.0;
+  constexpr double travel = 400.0;
+  const plystrain::test::MembranePressSolution membrane =
+      plystrain::test::solve_membrane_press(ring_radius, sphere_radius, travel);
   const double apex_reference = membrane.apex_stretch - 1.0;
   for (const plystrain::test::MembranePressSample& sample : membrane.samples) {
-    if (sample.reference_radius > 0.97 * 1000.0) {
+    if (sample.reference_radius > 0.97 * ring_radius) {
       continue;  // the clamp's bending boundary layer, a few thicknesses wide
     }
     const ProfileRow& row = at_radius(frictionless, "sheet", sample.reference_radius);
@@ -152,8 +157,8 @@ TEST_CASE("press: a thin sheet follows the membrane solution, and bonded contact
     CHECK(std::abs(row.along - meridional) <= 0.03 * std::max(std::abs(meridional), 0.2 * apex_reference));
     CHECK(std::abs(row.third - hoop) <= 0.03 * std::max(std::abs(hoop), 0.2 * apex_reference));
   }
+  // The apex itself is the loop's first sample (reference radius 0).
   const double apex_frictionless = at_radius(frictionless, "sheet", 0.0).along;
-  CHECK(apex_frictionless == Approx(apex_reference).epsilon(0.03));
   const double apex_bonded = at_radius(bonded, "sheet", 0.0).along;
   CHECK(apex_bonded < 0.8 * apex_frictionless);
   const nlohmann::json base = results_of(out / "base");
