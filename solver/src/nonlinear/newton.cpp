@@ -83,6 +83,9 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
   double residual_reference = std::max(residual_norm, reference_residual);
   double residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
   double increment_reference = 0.0;
+  // From a good predictor the first correction is already tiny, and a test
+  // relative to it alone would ask for corrections below the rounding of q.
+  const double increment_rounding = options.increment_rounding * q_start.norm();
   double last_increment = infinity;
   double previous_residual_norm = residual_norm;
 
@@ -107,7 +110,8 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
         last_increment * std::min(1.0, residual_norm / std::max(previous_residual_norm, 1e-300));
     const bool increment_small =
         iteration > 0 &&
-        predicted_increment <= std::max(options.increment_tolerance * increment_reference, options.increment_floor);
+        predicted_increment <= std::max({options.increment_tolerance * increment_reference, options.increment_floor,
+                                         increment_rounding});
     // Stalled: no longer contracting (rounding), tiny predicted correction.
     const bool stalled = increment_small && residual_norm > residual_limit &&
                          residual_norm >= 0.5 * previous_residual_norm &&

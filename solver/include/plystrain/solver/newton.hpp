@@ -26,7 +26,9 @@ namespace plystrain::solver {
 //      d_k min(1, r_k / r_{k-1}) <= max(increment_tolerance * d_ref, increment_floor))
 //  or  r_k <= residual_floor (also at k = 0),
 // where r_ref = max(r_0, reference_residual) and d_ref = d_1 (the first
-// increment). d_k r_k / r_{k-1} estimates the next correction: near the
+// increment); the increment test also passes below increment_rounding |q_0|,
+// the rounding level of q (from a good predictor d_1 itself is tiny, and
+// increment_tolerance d_1 lies below what q can resolve). d_k r_k / r_{k-1} estimates the next correction: near the
 // solution both the correction and the residual shrink together, and a step
 // that solved the equations exactly (a linear problem) is recognised without
 // another solve. The floors are absolute, in the units of R and q; they only
@@ -44,6 +46,7 @@ struct NewtonOptions {
   double residual_floor = 1e-12;
   double increment_tolerance = 1e-8;
   double increment_floor = 1e-14;
+  double increment_rounding = 1e-11;
   double stalled_residual_tolerance = 1e-5;
   // Stop as diverged when r_k exceeds this multiple of r_ref.
   double divergence_factor = 1e8;
