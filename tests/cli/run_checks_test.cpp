@@ -212,3 +212,33 @@ TEST_CASE("a stiff film at the middle of a symmetric sandwich sees almost no ben
   // Almost no strain: two orders of magnitude below the outer faces.
   CHECK(film["peak_strain"].get<double>() < 0.02 * extrapolated_top);
 }
+
+TEST_CASE("a film compressed past its wrinkling strain is reported as an unstable state", "[cli][run]") {
+  // demo-stiff-film (E = 1000 MPa, nu = 0.35) on silicone-10to1 (E = 1.32
+  // MPa, nu = 0.499): the wrinkling strain (1/4) (3 Es' / Ef')^(2/3) of a
+  // film on a deep substrate (Chen & Hutchinson, J. Appl. Mech. 71 (2004)
+  // 597; recalled from memory) is 0.69 %, with a 38 um wavelength; the
+  // 60 um base is deep enough and the 150 um strip holds four of them. At
+  // 1.4 % the flat state is unstable and the run must say so; at 0.35 % it
+  // is stable and must not (the onset itself is checked against the formula
+  // in verification/wrinkling_onset_test.cpp).
+  const std::filesystem::path out = plystrain::test::fresh_output_dir("compressed-film");
+  const auto result = run_plystrain("compare '" + data_path("cli/compressed-film.toml") + "' --out '" +
+                                    out.string() + "'");
+  INFO(result.out << "\n" << result.err);
+  REQUIRE(result.exit_code == 0);
+  const auto unstable_cautions = [](const nlohmann::json& results) {
+    int count = 0;
+    for (const nlohmann::json& caution : results["cautions"]) {
+      count += caution.get<std::string>().find("unstable equilibrium") != std::string::npos ? 1 : 0;
+    }
+    return count;
+  };
+  const nlohmann::json past = nlohmann::json::parse(plystrain::test::read_text(out / "base" / "results.json"));
+  const nlohmann::json below =
+      nlohmann::json::parse(plystrain::test::read_text(out / "below-onset" / "results.json"));
+  CHECK(unstable_cautions(past) == 1);
+  CHECK(unstable_cautions(below) == 0);
+  CHECK(result.out.find("unstable equilibrium") != std::string::npos);
+  std::filesystem::remove_all(out);
+}

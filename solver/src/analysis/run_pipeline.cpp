@@ -78,6 +78,17 @@ mesh::Mesh mesh_case(const CaseSpec& spec, RunLog& log, MeshFigures& figures) {
 // pressure reaches ten times the modulus.
 constexpr double surface_penetration_tolerance = 0.01;
 
+// A converged state whose tangent is not positive definite is an equilibrium
+// the stack would leave at the slightest imperfection (a compressed film
+// wrinkles, a layer folds); a model this idealised stays on it.
+std::string unstable_state_caution(const std::string& prefix, int negative_eigenvalues) {
+  return prefix + "the last converged state is an unstable equilibrium: its tangent stiffness has " +
+         std::to_string(negative_eigenvalues) +
+         " negative eigenvalues. A real stack would leave it (a compressed film wrinkles or buckles, a "
+         "layer folds), so the strains reported are those of a state it need not reach; treat the "
+         "verdicts as unconfirmed";
+}
+
 std::vector<std::string> model_cautions(const CaseSpec& spec) {
   std::vector<std::string> cautions;
   for (const LayerSpec& layer : spec.layers) {
@@ -266,6 +277,10 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
            << format("%.4f", increment.load_factor) << ", " << increment.newton_iterations
            << " Newton iterations, residual " << format("%.2e", increment.residual_norm);
       log.line(line.str());
+      if (increment.negative_pivots.value_or(0) > 0) {
+        log.line(prefix + "  the tangent has " + std::to_string(*increment.negative_pivots) +
+                 " negative eigenvalues here (LDL' inertia): an unstable equilibrium");
+      }
       say(line.str());
       if (fields && increment.q.size() > 0) {
         const solver::PointResults points =
@@ -286,6 +301,12 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
         solver::solve_load_path(model, linear_solver, q_start, load_case.stepper, callbacks);
     run.solver.increments += static_cast<int>(path.increments.size());
     run.solver.newton_iterations += path.newton_iterations;
+    if (!path.increments.empty() && path.increments.back().negative_pivots.value_or(0) > 0) {
+      const std::string warning = unstable_state_caution(prefix, *path.increments.back().negative_pivots);
+      log.line(warning);
+      say(warning);
+      run.cautions.push_back(warning);
+    }
 
     const solver::ContactState contact = model.contact_state(path.q, path.load_factor);
     if (contact.pairs > 0) {
