@@ -218,6 +218,9 @@ void write_field_vtu(const std::filesystem::path& path, const mesh::Mesh& mesh,
     writer->SetInputData(grid);
     // The default appended raw data is not well-formed XML (toolchain notes).
     writer->SetDataModeToBinary();
+    // Every converged increment writes a file: zlib took a sixth of a
+    // 30 % stretch run, LZ4 a fraction of that for 30 % more bytes.
+    writer->SetCompressorTypeToLZ4();
     return writer->Write() == 1;
   });
 }
