@@ -16,7 +16,7 @@ root_dir="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 packages=(
   build-essential cmake git ca-certificates
   libeigen3-dev libgmsh-dev libvtk9-dev libcli11-dev catch2
-  libtomlplusplus-dev libsuitesparse-dev libopenblas-dev nlohmann-json3-dev
+  libtomlplusplus-dev libsuitesparse-dev libopenblas-dev nlohmann-json3-dev ccache
 )
 
 missing=()
