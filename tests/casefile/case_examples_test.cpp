@@ -49,7 +49,7 @@ TEST_CASE("every example case reads with the built-in library", "[casefile][exam
 
 TEST_CASE("the named example cases show what they are for", "[casefile][examples]") {
   const std::filesystem::path cases = test::source_dir() / "cases";
-  const CaseSpec sensor = read_case(cases / "sensor-patch-pinhole" / "case.toml");
+  const CaseSpec sensor = read_case(cases / "sensor-patch-scratch" / "case.toml");
   CHECK(sensor.load.kind.value == LoadKind::stretch);
   REQUIRE_FALSE(sensor.defects.empty());
   CHECK(sensor.defects[0].kind.value == DefectKind::pinhole);

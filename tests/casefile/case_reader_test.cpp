@@ -257,8 +257,9 @@ TEST_CASE("integers are accepted for lengths and fractions", "[casefile][types]"
 
 TEST_CASE("every declared key is used by at least one good test case", "[casefile][keys]") {
   std::string all;
-  for (const char* name : {"every-key-stretch.toml", "every-key-bend.toml", "every-key-press.toml",
-                           "every-key-ellipsoid.toml", "every-key-profile.toml"}) {
+  for (const char* name :
+       {"every-key-stretch.toml", "every-key-bend.toml", "every-key-press.toml",
+        "every-key-ellipsoid.toml", "every-key-profile.toml", "row-of-slits.toml"}) {
     all += test::read_text(test::case_data("good") / name);
   }
   for (const KeyInfo& key : case_key_table()) {

@@ -45,9 +45,10 @@ TEST_CASE("a variant that removes layers drops their defects", "[casefile][varia
 
   // Removing the layer that holds a defect removes the defect too.
   std::string text = test::minimal_case();
-  text += "\n[[defect]]\nkind = \"pinhole\"\nlayer = \"film\"\nsize = 2\n"
-          "\n[[defect]]\nkind = \"delamination\"\nbelow = \"base\"\nsize = 8\n"
-          "\n[[variant]]\nname = \"no-film\"\nremove = [\"film\"]\n";
+  text +=
+      "\n[[defect]]\nkind = \"slit\"\nlayer = \"film\"\nsize = 2\n"
+      "\n[[defect]]\nkind = \"delamination\"\nbelow = \"base\"\nsize = 8\n"
+      "\n[[variant]]\nname = \"no-film\"\nremove = [\"film\"]\n";
   const CaseSpec with_defects = read_case_text(text, "remove.toml", test::test_library());
   const ResolvedCase no_film = resolve_variants(with_defects).front();
   CHECK(no_film.spec.layers.size() == 1);
@@ -58,7 +59,7 @@ TEST_CASE("removing the encapsulant leaves a pinhole empty", "[casefile][variant
   std::string text = test::minimal_case();
   text += "\n[[layer]]\nname = \"cap\"\nrole = \"encapsulant\"\nmaterial = \"parylene-c\"\n"
           "thickness = 2\n";
-  text.insert(text.find("[load]"), "[[defect]]\nkind = \"pinhole\"\nlayer = \"film\"\nsize = 2\n\n");
+  text.insert(text.find("[load]"), "[[defect]]\nkind = \"slit\"\nlayer = \"film\"\nsize = 2\n\n");
   text += "\n[[variant]]\nname = \"bare\"\nremove = [\"cap\"]\n";
   // Keep [[layer]] tables before [load] is not required by TOML: the reader sees tables.
   const CaseSpec base = read_case_text(text, "bare.toml", test::test_library());

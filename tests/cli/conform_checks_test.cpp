@@ -199,14 +199,21 @@ TEST_CASE("local check: the defect's cell is the stretch analysis of that defect
     CHECK(cell["layers"][i]["peak_strain"].get<double>() ==
           Approx(local["layers"][i]["peak_strain"].get<double>()).epsilon(1e-9));
   }
-  // The cell's far field is close to the applied major strain (a strip
-  // cell's film also feels the substrate's own lateral response, so not
-  // exactly).
+  // The cell's far field is its undisturbed state: the stack without the
+  // pinhole under the applied in-plane state, whose largest principal strain
+  // in the film is the applied major strain (the other two are the minor
+  // one and the thickness strain, both smaller).
   const nlohmann::json& film = cell["layers"][1];
-  CHECK(film["far_field_strain"].get<double>() == Approx(major).epsilon(0.1));
-  // The overall verdict of the film takes the local check into account.
-  CHECK(results["layers"][1]["peak_strain"].get<double>() >=
-        local["layers"][1]["peak_strain"].get<double>() - 1e-12);
+  CHECK(film["far_field_strain"].get<double>() == Approx(major).epsilon(1e-6));
+  // The overall verdict of the film is the worse of the global and the
+  // local one (results-format.md).
+  const auto rank = [](const nlohmann::json& verdict) {
+    const std::string text = verdict.get<std::string>();
+    return text == "cracks" ? 3 : text == "yields" ? 2 : text == "intact" ? 1 : 0;
+  };
+  const std::string film_name = results["layers"][1]["name"].get<std::string>();
+  CHECK(rank(results["overall_verdicts"][film_name]) ==
+        std::max(rank(results["layers"][1]["verdict"]), rank(local["layers"][1]["verdict"])));
   std::filesystem::remove_all(out);
   std::filesystem::remove_all(rerun);
 }

@@ -226,17 +226,21 @@ TEST_CASE("fields read back with VTK's readers: cells, points, arrays, collectio
     }
     CHECK(largest_misfit <= 1e-12);
 
-    // The boundary condition in the file's own units: on the rim r = width
-    // the radial displacement is the load factor times strain * width.
+    // The displacement in the file's own units: the rim carries the
+    // undisturbed stack's stress, so it moves by about the load factor times
+    // strain * width, plus what the pinhole opens up on its own (the mean
+    // over the rim's points is within 2 %). A length scale
+    // off by a unit (1e3) could not pass.
     int rim_points = 0;
+    double rim_sum = 0.0;
     for (vtkIdType id = 0; id < points; ++id) {
       if (std::abs(grid.GetPoint(id)[0] - width) <= 1e-9 * width) {
         ++rim_points;
-        CHECK(displacement->GetComponent(id, 0) ==
-              Approx(entry.timestep * strain * width).epsilon(1e-9));
+        rim_sum += displacement->GetComponent(id, 0);
       }
     }
-    CHECK(rim_points > 0);
+    REQUIRE(rim_points > 0);
+    CHECK(rim_sum / rim_points == Approx(entry.timestep * strain * width).epsilon(2e-2));
   }
   std::filesystem::remove_all(out);
 }

@@ -35,7 +35,7 @@ TEST_CASE("the table shows each layer's figures in % and the case unit", "[summa
   const plystrain::RunResults run = plystrain::test::sample_run();
   const std::string text = plystrain::format_results_table(run, {"mm", 1000.0});
   const std::string header = line_containing(text, "peak %");
-  for (const char* column : {"layer", "peak %", "at (x, z) mm", "far field %", "conc.", "min %",
+  for (const char* column : {"layer", "peak %", "at (x, z) mm", "undisturbed %", "conc.", "min %",
                              "stress MPa", "crack onset %", "margin", "verdict", "basis"}) {
     INFO(column);
     CHECK(header.find(column) != std::string::npos);

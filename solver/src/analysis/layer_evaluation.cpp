@@ -40,22 +40,43 @@ double evaluated_extent(const CaseSpec& spec) {
   return width;
 }
 
-double far_zone_start(const CaseSpec& spec) {
-  const double extent = evaluated_extent(spec);
-  double start = 0.0;
-  for (const DefectSpec& defect : spec.defects) {
-    const double outer_edge = std::abs(defect.at.value) + 0.5 * defect.size.value;
-    start = std::max(start, outer_edge + spec.mesh.grade_over.value);
-  }
-  // Without room beyond the defects, or without defects, the outer tenth.
-  const double outer_tenth = 0.9 * extent;
-  return (start <= 0.0 || start > outer_tenth) ? outer_tenth : start;
+double cell_edge_zone_start(const CaseSpec& spec) {
+  return edge_zone_fraction * evaluated_extent(spec);
 }
 
+namespace {
+
+// The reference's points that stand for "the same place without the
+// defect": all of them when the reference is uniform along x, else those
+// within a few averaging radii of x_peak (a conform device, whose strain
+// varies along the radius).
+solver::PointResults reference_near(const UndisturbedState& reference, double x_peak,
+                                    double radius) {
+  if (reference.uniform_along_x) {
+    return reference.points;
+  }
+  solver::PointResults near;
+  near.status = reference.points.status;
+  const double window = std::max(2.0 * radius, 1e-9);
+  double nearest = std::numeric_limits<double>::infinity();
+  for (const solver::PointResult& point : reference.points.points) {
+    nearest = std::min(nearest, std::abs(point.position.x() - x_peak));
+  }
+  for (const solver::PointResult& point : reference.points.points) {
+    if (std::abs(point.position.x() - x_peak) <= nearest + window) {
+      near.points.push_back(point);
+    }
+  }
+  return near;
+}
+
+}  // namespace
+
 std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
-                                         const solver::PointResults& all_points) {
+                                         const solver::PointResults& all_points,
+                                         const UndisturbedState* undisturbed) {
   const double radius = spec.report.averaging_radius.value;
-  const double far_start = far_zone_start(spec);
+  const double edge_start = cell_edge_zone_start(spec);
   const double extent = evaluated_extent(spec);
   solver::PointResults points;
   points.status = all_points.status;
@@ -98,15 +119,29 @@ std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
       result.peak_stress = largest_principal(at_peak->cauchy_stress);
     }
 
-    double far_field = -std::numeric_limits<double>::infinity();
+    // Measured for the curious and for the isolation check: what the layer
+    // carries at the outer edge of the modelled width.
+    double at_edge = -std::numeric_limits<double>::infinity();
     for (const solver::PointResult& point : points.points) {
-      if (point.region == r && std::abs(point.position.x()) >= far_start) {
-        far_field = std::max(far_field, point.max_principal_strain);
+      if (point.region == r && std::abs(point.position.x()) >= edge_start) {
+        at_edge = std::max(at_edge, point.max_principal_strain);
       }
     }
-    result.far_field_strain = std::isfinite(far_field) ? far_field : 0.0;
-    if (std::abs(result.far_field_strain) > 1e-9) {
-      result.concentration = result.peak_strain / result.far_field_strain;
+    if (std::isfinite(at_edge)) {
+      result.strain_at_cell_edge = at_edge;
+    }
+    // The concentration is taken against the same stack without its
+    // defects under the same load, at the peak's place: a far field measured
+    // in the model itself can still lie inside the defect's reach.
+    if (undisturbed != nullptr) {
+      const solver::PointResults reference = reference_near(*undisturbed, peak.at.x(), radius);
+      const solver::DiscPeak value = solver::max_disc_average(reference, r, radius, max_strain);
+      if (std::isfinite(value.value)) {
+        result.far_field_strain = value.value;
+        if (std::abs(value.value) > 1e-9) {
+          result.concentration = result.peak_strain / value.value;
+        }
+      }
     }
     if (result.crack_onset_strain) {
       result.crack_margin = 1.0 - result.peak_strain / *result.crack_onset_strain;

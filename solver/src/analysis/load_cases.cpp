@@ -22,11 +22,14 @@
 #include "plystrain/solver/stack_analysis.hpp"
 
 #include "plystrain/solver/input_error.hpp"
+#include "plystrain/solver/laminate_state.hpp"
 #include "plystrain/solver/rigid_surface.hpp"
 
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <map>
+#include <memory>
 #include <numbers>
 #include <sstream>
 
@@ -156,13 +159,103 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
   return options;
 }
 
+// The nominal stress P_xx of each layer in the undisturbed laminate state,
+// tabulated over the load factor for the edge traction of an isolated
+// defect. The state at a tabulated load factor (1 among them) is exact;
+// between two, the traction is interpolated linearly.
+class LaminateTractionTable {
+ public:
+  LaminateTractionTable(const CaseSpec& spec,
+                        const std::vector<solver::RegionDefinition>& regions) {
+    std::vector<LaminateLayer> layers;
+    double top = 0.0;
+    for (std::size_t i = 0; i < spec.layers.size(); ++i) {
+      layers.push_back({regions[i].law, spec.layers[i].thickness.value});
+      top += spec.layers[i].thickness.value;
+      layer_tops_.push_back(top);
+    }
+    const double strain = spec.load.strain.value;
+    const LateralCondition& lateral = spec.load.lateral.value;
+    std::optional<LaminateState> previous;
+    for (int k = 0; k <= samples; ++k) {
+      const double lambda = static_cast<double>(k) / samples;
+      ThirdStretch third;
+      if (spec.geometry.shape.value == Shape::disk) {
+        third.kind = ThirdStretch::Kind::equibiaxial;
+      } else if (lateral.mode == LateralMode::free) {
+        third.kind = ThirdStretch::Kind::free;
+      } else {
+        third.value = lateral.mode == LateralMode::imposed ? 1.0 + lambda * lateral.strain : 1.0;
+      }
+      const std::optional<LaminateState> state =
+          stretched_laminate(layers, 1.0 + lambda * strain, third, previous ? &*previous : nullptr);
+      if (!state) {
+        throw InputError(
+            spec.load.strain.where, "load.strain",
+            "the stack without its defects has no uniform stretched state at this strain "
+            "(a material law leaves its domain), found " +
+                std::to_string(strain));
+      }
+      stresses_.push_back(state->nominal_stress_xx);
+      previous = state;
+    }
+  }
+
+  // P_xx at reference height z and load factor lambda (extrapolated
+  // linearly past the ends, for the load derivative's difference quotient).
+  [[nodiscard]] double at(double z, double lambda) const {
+    std::size_t layer = 0;
+    while (layer + 1 < layer_tops_.size() && z > layer_tops_[layer]) {
+      ++layer;
+    }
+    const double position = std::clamp(lambda, 0.0, 1.0) * samples;
+    const int k = std::min(static_cast<int>(std::floor(position)), samples - 1);
+    const double a = stresses_[static_cast<std::size_t>(k)][layer];
+    const double b = stresses_[static_cast<std::size_t>(k + 1)][layer];
+    return a + (lambda * samples - k) * (b - a);
+  }
+
+ private:
+  static constexpr int samples = 400;
+  std::vector<double> layer_tops_;
+  std::vector<std::vector<double>> stresses_;  // per sample, per layer
+};
+
+solver::DeadTraction edge_traction(const std::string& set,
+                                   std::shared_ptr<const LaminateTractionTable> table,
+                                   double sign) {
+  solver::DeadTraction traction;
+  traction.edge_set = set;
+  traction.traction = [table = std::move(table), sign](const Eigen::Vector2d& X, double lambda) {
+    return Eigen::Vector2d(sign * table->at(X.y(), lambda), 0.0);
+  };
+  return traction;
+}
+
 solver::ModelDefinition stretch_definition(const CaseSpec& spec, const mesh::Mesh& grid) {
   solver::ModelDefinition definition;
   definition.regions = region_laws(spec);
   const double width = spec.geometry.width.value;
-  const double edge_displacement = spec.load.strain.value * width;
+  const double strain = spec.load.strain.value;
   require_node_set(grid, "outer");
-  definition.displacements.push_back(prescribe("outer", 0, edge_displacement));
+  // A stated row of defects is a periodic cell: its mean strain is the
+  // applied one, so the edge moves by strain * width. An isolated defect
+  // sits in a stack strained by the applied amount far from it.
+  // Without defects the two are the same state; the plain edge
+  // displacement is then kept for its simplicity.
+  const bool periodic = spec.geometry.defect_spacing.given || spec.defects.empty();
+  std::shared_ptr<const LaminateTractionTable> table;
+  if (periodic) {
+    definition.displacements.push_back(prescribe("outer", 0, strain * width));
+  } else {
+    // The edge carries the undisturbed laminate's stress, layer by layer:
+    // far from the defect the stack is then in exactly that state, and what
+    // the defect takes up on its own (a slit opens, a debond slides) moves
+    // the edge instead of coming off the strain of the whole cell, a deficit
+    // that would fall only as 1 / width under a prescribed edge displacement.
+    table = std::make_shared<const LaminateTractionTable>(spec, definition.regions);
+    definition.tractions.push_back(edge_traction("outer", table, 1.0));
+  }
   definition.displacements.push_back(prescribe(anchor_node_set, 1, 0.0));
   if (spec.geometry.shape.value == Shape::disk) {
     // The model holds u_r = 0 on the axis by itself.
@@ -175,42 +268,29 @@ solver::ModelDefinition stretch_definition(const CaseSpec& spec, const mesh::Mes
     definition.displacements.push_back(solver::symmetry("symmetry", 0));
   } else {
     require_node_set(grid, "outer-left");
-    definition.displacements.push_back(prescribe("outer-left", 0, -edge_displacement));
+    if (periodic) {
+      definition.displacements.push_back(prescribe("outer-left", 0, -strain * width));
+    } else {
+      definition.tractions.push_back(edge_traction("outer-left", table, -1.0));
+      definition.displacements.push_back(prescribe(anchor_node_set, 0, 0.0));
+    }
   }
   return definition;
 }
 
-// The loaded edge of a bend stays a straight line tilted by the end
+// The loaded edge of a bend stays a straight line turned by the end
 // rotation phi(lambda) = lambda width / R (clockwise for a positive radius,
-// so the top moves outwards), with each node free to move along it:
-//     u_x(node) - u_x(bottom node) = sin(phi) (Z_node - Z_bottom).
-// A rigid edge would also hold back each layer's through-thickness Poisson
-// contraction and stiffen a boundary layer that takes part of the rotation;
-// this condition lets the section contract freely. It is exact to first
-// order in phi times the through-thickness strain.
-void add_tilted_edge(const mesh::Mesh& grid, const std::string& set, double end_angle,
+// so the top moves outwards), free to translate and with each node free to
+// slide along it (solver::StraightEdge): the plane, radial section of pure
+// bending, held exactly at any rotation, so that every layer contracts or
+// swells through its thickness as it does far from the edge and the edge adds
+// no disturbance of its own.
+void add_turned_edge(const std::string& set, double end_angle,
                      solver::ModelDefinition& definition) {
-  const std::vector<int>& nodes = grid.node_sets.at(set);
-  int bottom = nodes.front();
-  for (const int node : nodes) {
-    if (grid.nodes[static_cast<std::size_t>(node)].y() <
-        grid.nodes[static_cast<std::size_t>(bottom)].y()) {
-      bottom = node;
-    }
-  }
-  const double z_bottom = grid.nodes[static_cast<std::size_t>(bottom)].y();
-  for (const int node : nodes) {
-    if (node == bottom) {
-      continue;
-    }
-    const double height = grid.nodes[static_cast<std::size_t>(node)].y() - z_bottom;
-    solver::LinearConstraint tilt;
-    tilt.terms = {{node, 0, 1.0}, {bottom, 0, -1.0}};
-    tilt.value.function = [height, end_angle](double load_factor) {
-      return std::sin(load_factor * end_angle) * height;
-    };
-    definition.linear_constraints.push_back(std::move(tilt));
-  }
+  solver::StraightEdge edge;
+  edge.edge_set = set;
+  edge.angle.value = end_angle;  // times lambda
+  definition.straight_edges.push_back(std::move(edge));
 }
 
 solver::ModelDefinition bend_definition(const CaseSpec& spec, const mesh::Mesh& grid,
@@ -223,14 +303,14 @@ solver::ModelDefinition bend_definition(const CaseSpec& spec, const mesh::Mesh& 
   // the outer edge moves outwards.
   const double end_angle = width / radius;
   require_node_set(grid, "outer");
-  add_tilted_edge(grid, "outer", end_angle, definition);
+  add_turned_edge("outer", end_angle, definition);
   definition.displacements.push_back(prescribe(anchor_node_set, 1, 0.0));
   if (spec.geometry.symmetric.value) {
     require_node_set(grid, "symmetry");
     definition.displacements.push_back(solver::symmetry("symmetry", 0));
   } else {
     require_node_set(grid, "outer-left");
-    add_tilted_edge(grid, "outer-left", -end_angle, definition);
+    add_turned_edge("outer-left", -end_angle, definition);
     definition.displacements.push_back(prescribe(anchor_node_set, 0, 0.0));
   }
   return definition;
@@ -370,6 +450,53 @@ std::string lateral_text(const CaseSpec& spec) {
     }
   }
   return "";
+}
+
+}  // namespace plystrain
+
+namespace plystrain {
+
+std::optional<CaseSpec> undisturbed_case(const CaseSpec& spec, double load_factor) {
+  CaseSpec reference = spec;
+  reference.defects.clear();
+  reference.variants.clear();
+  reference.sweep.reset();
+  reference.title.value = spec.title.value + ", undisturbed state";
+  // Every load of the stack analyses is proportional to the load factor
+  // (edge displacement and imposed lateral strain, end rotation, press
+  // travel), so the state at lambda is the full state of the load times
+  // lambda. A wrap grows the surface's height, which is not a scaled case.
+  LoadSpec& load = reference.load;
+  switch (load.kind.value) {
+    case LoadKind::stretch:
+      load.strain.value *= load_factor;
+      if (load.lateral.value.mode == LateralMode::imposed) {
+        load.lateral.value.strain *= load_factor;
+      }
+      break;
+    case LoadKind::bend:
+      for (double& radius : load.radius.value) {
+        radius /= load_factor;
+      }
+      break;
+    case LoadKind::conform:
+      if (load.method.value == ConformMethod::wrap && load_factor < 1.0) {
+        return std::nullopt;
+      }
+      load.travel.value *= load_factor;
+      return reference;
+  }
+  // The laminate state does not vary along x: a cell one stack thickness
+  // wide, two cells across, holds it whole (a uniform stretch is reproduced
+  // exactly by any element, pure bending by quadratic ones).
+  const double width = spec.total_thickness();
+  reference.geometry.width.value = width;
+  reference.geometry.defect_spacing.given = false;
+  reference.geometry.symmetric.value = true;
+  reference.mesh.size_far.value = 0.5 * width;
+  reference.mesh.size_near.value = std::min(reference.mesh.size_near.value, 0.5 * width);
+  reference.mesh.grade_over.value = 0.5 * width;
+  return reference;
 }
 
 }  // namespace plystrain

@@ -1,5 +1,7 @@
 #include "plystrain/solver/local_checks.hpp"
 
+#include "plystrain/solver/zone_of_influence.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <stdexcept>
@@ -55,9 +57,10 @@ CaseSpec local_cell_case(const CaseSpec& spec, std::size_t defect_index, double 
   centred.at.given = true;
   cell.defects = {centred};
   // Wide enough that the defect's disturbance has died out at the loaded
-  // edge: ten times its reach in the film, and twice the stack's thickness,
-  // over which a substrate spreads a local load.
-  const double width = std::max(10.0 * defect_reach(defect), 2.0 * spec.total_thickness());
+  // edge: its zone of influence in this stack (zone_of_influence.hpp), and
+  // never less than ten times its own reach.
+  const double width = std::max(10.0 * defect_reach(defect),
+                                default_width({centred}, stack_scales(spec.layers, spec.library)));
   cell.geometry.width.value = width;
   cell.geometry.width.given = true;
   // Every defect of an axisymmetric global model is round (a hole, a thin

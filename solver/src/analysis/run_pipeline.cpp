@@ -6,12 +6,14 @@
 #include "plystrain/mesh/stack_mesher.hpp"
 #include "plystrain/solver/atomic_file.hpp"
 #include "plystrain/solver/case_writer.hpp"
+#include "plystrain/solver/convergence_check.hpp"
 #include "plystrain/solver/field_writer.hpp"
 #include "plystrain/solver/linear_solver.hpp"
 #include "plystrain/solver/local_checks.hpp"
 #include "plystrain/solver/results_writers.hpp"
 #include "plystrain/solver/stack_analysis.hpp"
 #include "plystrain/solver/stack_from_case.hpp"
+#include "plystrain/solver/zone_of_influence.hpp"
 
 #include <chrono>
 #include <cinttypes>
@@ -117,6 +119,81 @@ std::vector<std::string> model_cautions(const CaseSpec& spec) {
   return cautions;
 }
 
+// Edge disturbance above which the cell is not called isolated: the
+// concentration then belongs to a row of defects, not to one.
+constexpr double isolated_edge_disturbance = 0.02;
+
+// The cell's width, each defect's zone of influence, and the cautions that
+// say what a cell narrower than the defects' reach models.
+void describe_cell(const CaseSpec& spec, RunResults& run) {
+  const GeometrySpec& geometry = spec.geometry;
+  run.cell.width = geometry.width.value;
+  run.cell.evaluated_extent = evaluated_extent(spec);
+  run.cell.width_basis = geometry.defect_spacing.given ? "defect spacing"
+                         : geometry.width.given        ? "given"
+                                                       : "isolating";
+  const StackScales scales = stack_scales(spec.layers, spec.library);
+  const OutputUnit unit{unit_name(spec.units.value), micrometres_per(spec.units.value)};
+  const auto length = [&](double micrometres) {
+    return format("%.4g", micrometres / unit.length_scale) + " " + unit.name;
+  };
+  for (std::size_t i = 0; i < spec.defects.size(); ++i) {
+    const DefectSpec& defect = spec.defects[i];
+    DefectZone zone;
+    zone.index = static_cast<int>(i) + 1;
+    zone.kind = defect_kind_name(defect.kind.value, geometry.shape.value);
+    zone.zone_of_influence = zone_of_influence(defect, scales);
+    zone.covered = geometry.width.value >= zone.zone_of_influence * (1.0 - 1e-9);
+    if (!zone.covered && spec.load.kind.value != LoadKind::conform) {
+      run.cautions.push_back(
+          geometry.defect_spacing.given
+              ? "defect " + std::to_string(zone.index) + " is modelled in a row of defects " +
+                    length(geometry.defect_spacing.value) +
+                    " apart (geometry.defect_spacing), closer than its estimated zone of "
+                    "influence of " +
+                    length(zone.zone_of_influence) + ": neighbours interact"
+              : "defect " + std::to_string(zone.index) + ": the modelled width of " +
+                    length(geometry.width.value) +
+                    " lies inside its estimated zone of influence (" +
+                    length(zone.zone_of_influence) + "), so the model is a row of such defects " +
+                    length(2.0 * geometry.width.value) +
+                    " apart, not an isolated one. Leave geometry.width out (or set at least " +
+                    length(zone.zone_of_influence) +
+                    ") to model an isolated defect, or state geometry.defect_spacing for a row");
+    }
+    run.defects.push_back(zone);
+  }
+}
+
+// Measured afterwards: whether the defects still change the strain at the
+// cell's edge, against the undisturbed state.
+void measure_edge_disturbance(const CaseSpec& spec, RunResults& run) {
+  if (spec.defects.empty() || spec.load.kind.value == LoadKind::conform) {
+    return;
+  }
+  std::string worst_layer;
+  double worst = 0.0;
+  for (const LayerResult& layer : run.layers) {
+    if (!layer.strain_at_cell_edge || !(std::abs(layer.far_field_strain) > 1e-9)) {
+      continue;
+    }
+    const double disturbance = std::abs(*layer.strain_at_cell_edge / layer.far_field_strain - 1.0);
+    if (!run.cell.edge_disturbance || disturbance > *run.cell.edge_disturbance) {
+      run.cell.edge_disturbance = disturbance;
+      worst = disturbance;
+      worst_layer = layer.name;
+    }
+  }
+  if (worst > isolated_edge_disturbance && !spec.geometry.defect_spacing.given) {
+    run.cautions.push_back(
+        "at the edge of the modelled width the defects still change the strain of "
+        "layer " +
+        worst_layer + " by " + format("%.1f", 100.0 * worst) +
+        " % against the undisturbed state: the cell does not isolate them, and "
+        "its peaks are those of a row of defects at twice its width; widen it");
+  }
+}
+
 // The contact of a conform run: logged, and the figures of the conform block.
 template <typename Say>
 ConformResult conform_result(const CaseSpec& spec, const solver::Model& model, const Eigen::VectorXd& q,
@@ -154,6 +231,53 @@ ConformResult conform_result(const CaseSpec& spec, const solver::Model& model, c
              "stopped updating it");
   }
   return conform;
+}
+
+// The undisturbed state of load case `index` at `load_factor`, solved
+// without files; empty (and said in the log) when it cannot be had.
+std::optional<UndisturbedState> solve_undisturbed(const CaseSpec& spec, std::size_t index,
+                                                  double load_factor, int threads, RunLog& log) {
+  const std::optional<CaseSpec> reference = undisturbed_case(spec, load_factor);
+  if (!reference) {
+    log.line("undisturbed state: not solved (a wrap that stopped early is not a scaled case)");
+    return std::nullopt;
+  }
+  const Clock::time_point start = Clock::now();
+  mesh::Mesh grid;
+  try {
+    mesh::GmshSession session;
+    grid = mesh::build_stack_mesh(session, stack_from_case(*reference));
+  } catch (const mesh::MeshError& error) {
+    log.line(std::string("undisturbed state: could not be meshed: ") + error.what());
+    return std::nullopt;
+  }
+  std::vector<LoadCase> cases = build_load_cases(*reference, grid);
+  LoadCase& load_case = cases.at(index);
+  load_case.definition.threads = threads;
+  solver::Model model(grid, load_case.definition);
+  solver::DirectSparseSolver linear_solver;
+  load_case.stepper.newton.symmetry = model.tangent_is_symmetric()
+                                          ? solver::MatrixSymmetry::symmetric
+                                          : solver::MatrixSymmetry::unsymmetric;
+  load_case.stepper.keep_states = false;
+  const solver::LoadPathResult path = solver::solve_load_path(
+      model, linear_solver, Eigen::VectorXd::Zero(model.size()), load_case.stepper);
+  if (!path.completed()) {
+    log.line("undisturbed state: stopped at load factor " + format("%.4f", path.load_factor) +
+             ": " + path.reason);
+    return std::nullopt;
+  }
+  UndisturbedState state;
+  state.points = solver::evaluate_points(model, path.q, path.load_factor);
+  state.uniform_along_x = spec.load.kind.value != LoadKind::conform;
+  if (!state.points.status.ok()) {
+    log.line("undisturbed state: could not be evaluated: " + state.points.status.detail);
+    return std::nullopt;
+  }
+  log.line("undisturbed state: the stack without defects, " + std::to_string(model.size()) +
+           " unknowns, " + std::to_string(path.increments.size()) + " increments" +
+           format(", %.2f s", seconds_since(start)));
+  return state;
 }
 
 }  // namespace
@@ -208,6 +332,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
   run.load = load_kind_name(spec.load.kind.value);
   run.lateral = lateral_text(spec);
   run.cautions = model_cautions(spec);
+  describe_cell(spec, run);
   log.line("plystrain " + run.tool_version + ", case " + spec.source.string() + " (hash " +
            run.case_hash + ")");
   if (local_checks) {
@@ -340,12 +465,29 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
       throw std::runtime_error("the last converged state could not be evaluated: " +
                                points.status.detail);
     }
-    std::vector<LayerResult> layers = evaluate_layers(spec, points);
+    // A conform run that checks its defects in local cells solved the
+    // device without them: it is its own undisturbed state.
+    std::optional<UndisturbedState> undisturbed;
+    if (spec.load.kind.value == LoadKind::conform && spec.defects.empty()) {
+      undisturbed = UndisturbedState{points, false};
+    } else {
+      undisturbed = solve_undisturbed(spec, index, path.load_factor, options.threads, log);
+    }
+    std::vector<LayerResult> layers =
+        evaluate_layers(spec, points, undisturbed ? &*undisturbed : nullptr);
     for (std::size_t i = 0; i < layers.size(); ++i) {
       log.line(prefix + "layer " + layers[i].name +
-               format(": peak %.6g (raw integration-point peak %.6g), far field %.6g",
+               format(": peak %.6g (raw integration-point peak %.6g), undisturbed %.6g",
                       layers[i].peak_strain, layers[i].raw_peak_strain,
-                      layers[i].far_field_strain));
+                      layers[i].far_field_strain) +
+               (layers[i].strain_at_cell_edge
+                    ? format(", at the cell edge %.6g", *layers[i].strain_at_cell_edge)
+                    : std::string()));
+    }
+    if (!undisturbed) {
+      run.cautions.push_back(prefix +
+                             "the undisturbed state could not be solved, so no concentration is "
+                             "given (log.txt says why)");
     }
     evaluations.push_back(std::move(layers));
     last_points = points;
@@ -368,6 +510,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
   }
 
   run.layers = envelope(evaluations);
+  measure_edge_disturbance(spec, run);
   if (run.conform) {
     for (const LayerResult& layer : run.layers) {
       run.conform->required_strain.push_back({layer.name, layer.peak_strain, layer.peak_at, layer.min_strain});
@@ -383,8 +526,26 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
                shape_name(plan.cell.geometry.shape.value) + " cell of width " +
                format("%.4g", plan.cell.geometry.width.value) + " um, loaded with the in-plane state " + state);
       say(label + ": " + shape_name(plan.cell.geometry.shape.value) + " cell, " + state);
+      if (plan.cell.geometry.shape.value == Shape::strip) {
+        // A plane-strain cell turns the round defect of the device into a
+        // line defect across it, which concentrates strain more: the local
+        // verdict is then an upper estimate.
+        const DefectKind kind =
+            spec_as_given.defects[static_cast<std::size_t>(plan.defect_index - 1)].kind.value;
+        const char* as_line = kind == DefectKind::pinhole     ? "a slit"
+                              : kind == DefectKind::thin_spot ? "a groove"
+                                                              : "a delaminated band";
+        run.cautions.push_back(
+            label + ": the in-plane strain at the defect is not equibiaxial (" + state +
+            "), which an axisymmetric cell cannot hold, so the round defect is checked as " +
+            as_line +
+            " across the device in a plane-strain cell; a line defect concentrates strain "
+            "more than a round one, so this local peak is an upper estimate of the round defect's");
+      }
       plan.cell.source = spec_as_given.source;
+      plan.cell.report.verify.value = false;
       RunOptions cell_options = options;
+      cell_options.verify = false;
       cell_options.out = options.out / ("local-" + std::to_string(plan.defect_index));
       cell_options.progress = [&](const std::string& text) { say("  " + label + ": " + text); };
       const RunOutcome cell = run_case(plan.cell, cell_options);
@@ -405,6 +566,36 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
         break;
       }
       log.line(label + ": done, results in " + cell_options.out.filename().string() + "/");
+    }
+  }
+  if ((options.verify || spec_as_given.report.verify.value) && run.completed) {
+    log.flush();
+    const std::vector<ConvergenceRerunPlan> plans = convergence_reruns(spec_as_given);
+    std::vector<RunResults> reruns;
+    for (const ConvergenceRerunPlan& plan : plans) {
+      log.line("convergence check: " + plan.what + ", in " + plan.folder + "/");
+      say("convergence check: " + plan.what);
+      RunOptions rerun_options = options;
+      rerun_options.verify = false;
+      rerun_options.out = options.out / plan.folder;
+      rerun_options.progress = [&](const std::string& text) {
+        say("  " + plan.folder + ": " + text);
+      };
+      reruns.push_back(run_case(plan.spec, rerun_options).results);
+    }
+    run.verification = compare_reruns(run, plans, reruns);
+    for (const ConvergenceRerun& rerun : run.verification->reruns) {
+      for (const PeakChange& change : rerun.layers) {
+        log.line("convergence check, " + rerun.what + ": layer " + change.layer +
+                 format(" peak %.6g, rerun %.6g, change %.3g %%", change.peak, change.rerun_peak,
+                        100.0 * change.change));
+      }
+    }
+    log.line("convergence check: " + run.verification->verdict);
+    say("convergence check: " + run.verification->verdict);
+    if (!run.verification->converged) {
+      run.cautions.push_back("convergence check: " + run.verification->verdict +
+                             "; the peaks depend on that modelling choice");
     }
   }
   run.solver.seconds = seconds_since(start);

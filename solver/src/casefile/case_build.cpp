@@ -1,6 +1,7 @@
 // CaseDocument to CaseSpec: which keys apply, required keys, defaults, unit
 // conversion to micrometres.
 #include "case_document.hpp"
+#include "plystrain/solver/zone_of_influence.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -91,8 +92,9 @@ constexpr std::array<std::pair<const char*, LayerRole>, 7> role_names{
      {"transport", LayerRole::transport},
      {"adhesive", LayerRole::adhesive},
      {"encapsulant", LayerRole::encapsulant}}};
-constexpr std::array<std::pair<const char*, DefectKind>, 3> defect_names{
+constexpr std::array<std::pair<const char*, DefectKind>, 4> defect_names{
     {{"pinhole", DefectKind::pinhole},
+     {"slit", DefectKind::pinhole},
      {"thin-spot", DefectKind::thin_spot},
      {"delamination", DefectKind::delamination}}};
 constexpr std::array<std::pair<const char*, DefectFill>, 2> fill_names{
@@ -163,6 +165,27 @@ class TableReader {
   double micrometres_;
 };
 
+// A through-layer hole is a different defect in the two geometries, and the
+// case must say which one it means: in a plane-strain section the hole runs
+// along the whole depth of the device (a slit, scratch or channel crack),
+// which concentrates strain far more than a round pinhole of the same width.
+void check_hole_spelling(const Located<std::string>& kind, Shape shape, std::size_t index,
+                         Problems& problems) {
+  const std::string key = CaseDocument::defect_label(index) + ".kind";
+  if (shape == Shape::strip && kind.value == "pinhole") {
+    problems.add(kind.where, key,
+                 "a through-layer hole on a strip is a line defect across the whole device (a "
+                 "plane-strain section cannot hold a round hole): write kind = \"slit\" for a "
+                 "slit, scratch or channel crack; for a round pinhole under equibiaxial stretch "
+                 "use geometry.shape = \"disk\", found \"pinhole\"");
+  } else if (shape == Shape::disk && kind.value == "slit") {
+    problems.add(kind.where, key,
+                 "a disk is axisymmetric, so a hole through a layer is a round \"pinhole\" (a "
+                 "ring when at > 0); a slit across the device needs geometry.shape = \"strip\", "
+                 "found \"slit\"");
+  }
+}
+
 }  // namespace
 
 CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library) {
@@ -216,7 +239,6 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   const TableReader geometry(document.geometry, CaseSection::geometry, micrometres);
   spec.geometry.where = document.geometry.where;
   spec.geometry.shape = geometry.choice("shape", shape_names);
-  spec.geometry.width = geometry.length("width");
   spec.geometry.symmetric = geometry.boolean("symmetric");
 
   const TableReader mesh(document.mesh, CaseSection::mesh, micrometres);
@@ -237,22 +259,13 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   }
   const double thinnest = spec.thinnest_thickness();
 
-  // Filled defaults never contradict each other: size_near <= size_far.
-  spec.mesh.size_near = mesh.length("size_near", thinnest / 2.0);
-  spec.mesh.size_far = mesh.length("size_far", spec.geometry.width.value / 40.0);
-  if (!spec.mesh.size_near.given) {
-    spec.mesh.size_near.value = std::min(spec.mesh.size_near.value, spec.mesh.size_far.value);
-  } else if (!spec.mesh.size_far.given) {
-    spec.mesh.size_far.value = std::max(spec.mesh.size_far.value, spec.mesh.size_near.value);
-  }
-  spec.mesh.grade_over = mesh.length("grade_over", 10.0 * spec.mesh.size_far.value);
-
   for (std::size_t i = 0; i < document.defects.size(); ++i) {
     const Table& table = document.defects[i];
     const TableReader reader(table, CaseSection::defect, micrometres);
     DefectSpec defect;
     defect.where = table.where;
     defect.kind = reader.choice("kind", defect_names);
+    check_hole_spelling(reader.text("kind"), spec.geometry.shape.value, i, problems);
     defect.layer = reader.text("layer");
     defect.below = reader.text("below");
     defect.at = reader.length("at");
@@ -267,6 +280,28 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
     }
     spec.defects.push_back(std::move(defect));
   }
+
+  // The width defaults to one that isolates the defects (zone_of_influence.hpp);
+  // a stated defect spacing models a row of defects instead.
+  const StackScales scales = stack_scales(spec.layers, spec.library);
+  spec.geometry.defect_spacing = geometry.length("defect_spacing");
+  const double width_default = spec.geometry.defect_spacing.given
+                                   ? 0.5 * spec.geometry.defect_spacing.value
+                                   : default_width(spec.defects, scales);
+  spec.geometry.width = geometry.length("width", width_default);
+  if (spec.geometry.defect_spacing.given) {
+    spec.geometry.width.where = spec.geometry.defect_spacing.where;
+  }
+
+  // Filled defaults never contradict each other: size_near <= size_far.
+  spec.mesh.size_near = mesh.length("size_near", thinnest / 2.0);
+  spec.mesh.size_far = mesh.length("size_far", spec.geometry.width.value / 40.0);
+  if (!spec.mesh.size_near.given) {
+    spec.mesh.size_near.value = std::min(spec.mesh.size_near.value, spec.mesh.size_far.value);
+  } else if (!spec.mesh.size_far.given) {
+    spec.mesh.size_far.value = std::max(spec.mesh.size_far.value, spec.mesh.size_near.value);
+  }
+  spec.mesh.grade_over = mesh.length("grade_over", 10.0 * spec.mesh.size_far.value);
 
   const TableReader load(document.load, CaseSection::load, micrometres);
   LoadSpec& l = spec.load;
@@ -330,6 +365,7 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   spec.report.averaging_radius = report.length("averaging_radius", thinnest / 2.0);
   spec.report.fields = report.boolean("fields");
   spec.report.profiles = report.boolean("profiles");
+  spec.report.verify = report.boolean("verify");
 
   spec.variants = document.variants;
   spec.sweep = document.sweep;

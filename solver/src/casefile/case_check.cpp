@@ -24,6 +24,7 @@ class CaseChecker {
   }
 
   void run() {
+    check_width();
     check_layers();
     for (std::size_t i = 0; i < spec_.defects.size(); ++i) {
       check_defect(i);
@@ -53,6 +54,20 @@ class CaseChecker {
   std::string layer_hint(const std::string& name) const {
     const std::string hint = closest_match(name, layer_names_);
     return hint.empty() ? "" : " (did you mean \"" + hint + "\"?)";
+  }
+
+  void check_width() {
+    const GeometrySpec& geometry = spec_.geometry;
+    if (geometry.defect_spacing.given && geometry.width.given) {
+      problems_.add(geometry.defect_spacing.where, "geometry.defect_spacing",
+                    "expected either a width or a defect spacing (the width is half the "
+                    "spacing), found both (geometry.width on line " +
+                        std::to_string(geometry.width.where.line) + ")");
+    }
+    if (spec_.load.kind.value == LoadKind::conform && !geometry.width.given) {
+      problems_.add(geometry.where, "geometry.width",
+                    "expected the device's radius for a conform analysis, found no width");
+    }
   }
 
   void check_layers() {
@@ -144,7 +159,8 @@ class CaseChecker {
         const std::array<double, 2> eb = extent(b);
         if (ea[0] < eb[1] && eb[0] < ea[1]) {
           problems_.add(a.where, label(i),
-                        std::string("expected ") + defect_kind_name(a.kind.value) +
+                        std::string("expected ") +
+                            defect_kind_name(a.kind.value, spec_.geometry.shape.value) +
                             "s in one layer not to overlap, found it overlaps " + label(j) +
                             " (line " + std::to_string(b.where.line) + ") in \"" +
                             a.host_layer().value + "\"");

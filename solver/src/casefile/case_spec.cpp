@@ -39,9 +39,10 @@ const char* role_name(LayerRole role) {
   return "other";
 }
 
-const char* defect_kind_name(DefectKind kind) {
+const char* defect_kind_name(DefectKind kind, Shape shape) {
   switch (kind) {
-    case DefectKind::pinhole: return "pinhole";
+    case DefectKind::pinhole:
+      return shape == Shape::strip ? "slit" : "pinhole";
     case DefectKind::thin_spot: return "thin-spot";
     case DefectKind::delamination: return "delamination";
   }

@@ -34,7 +34,11 @@ class DocumentWriter {
     geometry.where = spec_.geometry.where;
     put(geometry, "shape", spec_.geometry.shape,
         [](Shape shape) { return CaseValue{std::string(shape_name(shape))}; });
-    put(geometry, "width", spec_.geometry.width, length());
+    if (spec_.geometry.defect_spacing.given) {
+      put(geometry, "defect_spacing", spec_.geometry.defect_spacing, length());
+    } else {
+      put(geometry, "width", spec_.geometry.width, length());
+    }
     put(geometry, "symmetric", spec_.geometry.symmetric, flag);
 
     for (const LayerSpec& layer : spec_.layers) {
@@ -52,8 +56,10 @@ class DocumentWriter {
       Table& table = document_.defects.emplace_back();
       table.present = true;
       table.where = defect.where;
-      put(table, "kind", defect.kind,
-          [](DefectKind kind) { return CaseValue{std::string(defect_kind_name(kind))}; });
+      const Shape shape = spec_.geometry.shape.value;
+      put(table, "kind", defect.kind, [shape](DefectKind kind) {
+        return CaseValue{std::string(defect_kind_name(kind, shape))};
+      });
       put(table, "layer", defect.layer, text);
       put(table, "below", defect.below, text);
       put(table, "at", defect.at, length());
@@ -165,6 +171,7 @@ class DocumentWriter {
     put(report, "averaging_radius", spec_.report.averaging_radius, length());
     put(report, "fields", spec_.report.fields, flag);
     put(report, "profiles", spec_.report.profiles, flag);
+    put(report, "verify", spec_.report.verify, flag);
   }
 
   // Filled defaults of keys that do not apply (a lateral condition on a disk,

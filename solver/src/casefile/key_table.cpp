@@ -65,11 +65,28 @@ std::vector<KeyInfo> build_table() {
        .default_text = "required", .choices = plain({"strip", "disk"}),
        .help = "`strip`: a cross-section through a long stack (plane-strain family); `disk`: "
                "an axisymmetric cross-section about the axis r = 0"});
-  add({.section = S::geometry, .name = "width", .kind = V::length, .required = true,
-       .default_text = "required", .min = above(0), .unit = U::length,
+  add({.section = S::geometry,
+       .name = "width",
+       .kind = V::length,
+       .default_text = "stretch, bend: wide enough to isolate the defects; conform: required",
+       .min = above(0),
+       .unit = U::length,
        .help = "extent along x or r of the modelled part: the half-width of a symmetric strip, "
                "the half-width of a full strip (modelled from -width to width), or the radius "
-               "of a disk"});
+               "of a disk. Left out, it covers each defect's zone of influence twice over (a "
+               "zone is the defect's reach plus three load-transfer lengths of the stack, at "
+               "least three stack thicknesses), so that each defect is isolated; a width inside "
+               "a zone models a row of defects at twice that spacing and gets a caution. "
+               "Required for conform, where it is the device's radius"});
+  add({.section = S::geometry,
+       .name = "defect_spacing",
+       .kind = V::length,
+       .min = above(0),
+       .unit = U::length,
+       .applies_when = {strip_only},
+       .help = "a row of equal defects at this spacing along x, stated on purpose (a row of "
+               "cracks or slits): the modelled half-width is half the spacing. Not together "
+               "with `width`"});
   add({.section = S::geometry, .name = "symmetric", .kind = V::boolean,
        .fixed_default = CaseValue{true}, .default_text = "true", .applies_when = {strip_only},
        .help = "`true`: a symmetry plane at x = 0 and only 0..width is modelled; `false`: "
@@ -95,14 +112,21 @@ std::vector<KeyInfo> build_table() {
        .unit = U::count, .help = "minimum number of elements across this layer"});
 
   // [[defect]]
-  const KeyCondition film_defect{"kind", {"pinhole", "thin-spot"}};
-  add({.section = S::defect, .name = "kind", .kind = V::choice, .required = true,
-       .default_text = "required", .choices = plain({"pinhole", "thin-spot", "delamination"}),
+  const KeyCondition film_defect{"kind", {"pinhole", "slit", "thin-spot"}};
+  add({.section = S::defect,
+       .name = "kind",
+       .kind = V::choice,
+       .required = true,
+       .default_text = "required",
+       .choices = plain({"pinhole", "slit", "thin-spot", "delamination"}),
        .settable = false,
-       .help = "`pinhole`: a hole through the whole thickness of its layer; `thin-spot`: a "
-               "recess in the top face of its layer; `delamination`: a stretch of interface "
-               "that is not bonded (its faces may separate and slide but not pass through "
-               "each other)"});
+       .help = "`slit` (strip) and `pinhole` (disk): a hole through the whole thickness of its "
+               "layer. On a strip, a plane-strain section, every defect runs across the whole "
+               "device: a slit is a scratch or channel crack, a thin spot a groove, a "
+               "delamination a band; round pinholes are modelled on disks (equibiaxial "
+               "stretch). `thin-spot`: a recess in the top face of its layer; `delamination`: a "
+               "stretch of interface that is not bonded (its faces may separate and slide but "
+               "not pass through each other)"});
   add({.section = S::defect, .name = "layer", .kind = V::name, .required = true,
        .default_text = "required", .applies_when = {film_defect},
        .help = "name of the layer that has the defect"});
@@ -250,6 +274,14 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::report, .name = "profiles", .kind = V::boolean,
        .fixed_default = CaseValue{true}, .default_text = "true",
        .help = "write the strain along each layer's mid-line to CSV"});
+  add({.section = S::report,
+       .name = "verify",
+       .kind = V::boolean,
+       .fixed_default = CaseValue{false},
+       .default_text = "false",
+       .help = "after the run, solve the case again with the mesh near the defects halved, and "
+               "(stretch and bend, unless a defect spacing is stated) with the width doubled, "
+               "and report how far each layer's peak moved (as `--verify`)"});
 
   // [[variant]]
   add({.section = S::variant, .name = "name", .kind = V::name, .required = true,

@@ -292,7 +292,8 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     }
   }
   std::vector<double> youngs_modulus_of_cell;
-  if (!definition.contacts.empty() || !definition.surface_contacts.empty()) {
+  if (!definition.contacts.empty() || !definition.surface_contacts.empty() ||
+      !definition.straight_edges.empty()) {
     youngs_modulus_of_cell.reserve(mesh.cells.size());
     for (const mesh::Cell& cell : mesh.cells) {
       youngs_modulus_of_cell.push_back(
@@ -317,6 +318,39 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     for (const ContactNodePair& pair : contact_pairs) {
       const std::array<int, 4> vars = contact_variables(pair);
       blocks.emplace_back(vars.begin(), vars.end());
+    }
+  }
+  edge_line_block_begin = static_cast<int>(blocks.size());
+  for (std::size_t k = 0; k < definition.straight_edges.size(); ++k) {
+    const StraightEdge& line = definition.straight_edges[k];
+    const std::string what = "straight edge '" + line.edge_set + "'";
+    if (!(line.penalty_factor > 0.0)) {
+      throw std::invalid_argument(what + ": the penalty factor must be positive");
+    }
+    const std::map<int, FaceNodeShare> shares = face_node_shares(
+        mesh, require_edge_set(mesh, line.edge_set, what), axisymmetric, youngs_modulus_of_cell);
+    if (shares.size() < 2) {
+      throw std::invalid_argument(what + ": needs at least two nodes");
+    }
+    int base = shares.begin()->first;
+    for (const auto& [node, share] : shares) {
+      if (mesh.nodes[static_cast<std::size_t>(node)].y() <
+          mesh.nodes[static_cast<std::size_t>(base)].y()) {
+        base = node;
+      }
+    }
+    for (const auto& [node, share] : shares) {
+      if (node == base) {
+        continue;
+      }
+      EdgeLineTie tie;
+      tie.edge = static_cast<int>(k);
+      tie.base = base;
+      tie.node = node;
+      tie.stiffness = line.penalty_factor * share.modulus / share.spacing * share.area;
+      edge_line_ties.push_back(tie);
+      blocks.push_back(
+          {variable(base, 0), variable(base, 1), variable(node, 0), variable(node, 1)});
     }
   }
   for (std::size_t k = 0; k < definition.surface_contacts.size(); ++k) {
@@ -501,6 +535,22 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
       if (tangent) {
         assembly.scatter_matrix(block, stiffness.data(), 4, values);
       }
+    }
+  }
+  for (std::size_t k = 0; k < edge_line_ties.size(); ++k) {
+    const EdgeLineTie& tie = edge_line_ties[k];
+    const double angle =
+        definition.straight_edges[static_cast<std::size_t>(tie.edge)].angle.at(load_factor);
+    Eigen::Matrix<double, 4, 1> a;
+    a << -std::cos(angle), std::sin(angle), std::cos(angle), -std::sin(angle);
+    const double gap =
+        a.tail<2>().dot(current_position(tie.node, z) - current_position(tie.base, z));
+    Eigen::Matrix<double, 4, 1> f = tie.stiffness * gap * a;
+    const int block = edge_line_block_begin + static_cast<int>(k);
+    assembly.scatter_vector(block, f.data(), 4, forces);
+    if (tangent) {
+      Eigen::Matrix<double, 4, 4> stiffness = tie.stiffness * a * a.transpose();
+      assembly.scatter_matrix(block, stiffness.data(), 4, values);
     }
   }
   for (std::size_t k = 0; k < surface_nodes.size(); ++k) {

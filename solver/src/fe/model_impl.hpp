@@ -52,6 +52,15 @@ class ModelImpl {
   int contact_updates = 0;         // changes of the set in the current attempt
   bool contact_unsettled = false;  // the set was still changing when the updates stopped
   int contact_block_begin = 0;  // assembly block of the first contact pair
+  // One node of a straight edge tied to the edge's lowest node.
+  struct EdgeLineTie {
+    int edge = 0;   // index into definition.straight_edges
+    int base = -1;  // the lowest node of the edge
+    int node = -1;
+    double stiffness = 0.0;  // k w
+  };
+  std::vector<EdgeLineTie> edge_line_ties;
+  int edge_line_block_begin = 0;
   std::vector<SurfaceContactNode> surface_nodes;
   std::vector<SurfaceNodeState> surface_states;           // used by evaluate
   std::vector<SurfaceNodeState> accepted_surface_states;  // as accepted with the last increment

@@ -58,6 +58,7 @@ Json layer_json(const LayerResult& layer, const OutputUnit& unit) {
   out["raw_peak_strain"] = number(layer.raw_peak_strain);
   out["far_field_strain"] = number(layer.far_field_strain);
   out["concentration"] = optional_number(layer.concentration);
+  out["strain_at_cell_edge"] = optional_number(layer.strain_at_cell_edge);
   out["min_strain"] = number(layer.min_strain);
   out["peak_stress"] = number(layer.peak_stress);
   out["crack_onset_strain"] = optional_number(layer.crack_onset_strain);
@@ -125,6 +126,40 @@ std::string results_json_text(const RunResults& run, const OutputUnit& unit) {
   }
   out["local"] = local;
   out["conform"] = run.conform ? conform_json(*run.conform, unit) : Json(nullptr);
+  out["cell"] = Json{{"width", length(run.cell.width, unit)},
+                     {"width_basis", run.cell.width_basis},
+                     {"evaluated_extent", length(run.cell.evaluated_extent, unit)},
+                     {"edge_disturbance", optional_number(run.cell.edge_disturbance)}};
+  Json defects = Json::array();
+  for (const DefectZone& zone : run.defects) {
+    defects.push_back(Json{{"defect", zone.index},
+                           {"kind", zone.kind},
+                           {"zone_of_influence", length(zone.zone_of_influence, unit)},
+                           {"covered", zone.covered}});
+  }
+  out["defects"] = defects;
+  if (run.verification) {
+    Json reruns = Json::array();
+    for (const ConvergenceRerun& rerun : run.verification->reruns) {
+      Json layers = Json::object();
+      for (const PeakChange& change : rerun.layers) {
+        layers[change.layer] = Json{{"peak_strain", number(change.peak)},
+                                    {"rerun_peak_strain", number(change.rerun_peak)},
+                                    {"change", number(change.change)}};
+      }
+      reruns.push_back(Json{{"what", rerun.what},
+                            {"folder", rerun.folder},
+                            {"completed", rerun.completed},
+                            {"largest_change", number(rerun.largest_change)},
+                            {"layers", layers}});
+    }
+    out["verification"] = Json{{"tolerance", number(run.verification->tolerance)},
+                               {"converged", run.verification->converged},
+                               {"verdict", run.verification->verdict},
+                               {"reruns", reruns}};
+  } else {
+    out["verification"] = nullptr;
+  }
   Json overall = Json::object();
   for (const LayerResult& layer : governing_layers(run)) {
     overall[layer.name] = verdict_name(layer.verdict);

@@ -117,7 +117,7 @@ std::string layer_table(const std::vector<LayerResult>& layers, const OutputUnit
       {"role", false},
       {"peak %", true},
       {std::string("at (x, z) ") + unit.name, false},
-      {"far field %", true},
+      {"undisturbed %", true},
       {"conc.", true},
       {"min %", true},
       {"stress MPa", true},
@@ -195,6 +195,27 @@ std::string completion_line(const RunResults& run) {
          ". The figures above are for the last converged increment.\n";
 }
 
+// The modelled cell: how wide, why, and whether it isolates the defects.
+std::string cell_line(const RunResults& run, const OutputUnit& unit) {
+  if (run.defects.empty()) {
+    return {};
+  }
+  std::string out = std::string("Cell: half-width ") +
+                    printf_number("%.4g", run.cell.width / unit.length_scale) + " " + unit.name;
+  if (run.cell.width_basis == "isolating") {
+    out += " (chosen to isolate the defects)";
+  } else if (run.cell.width_basis == "defect spacing") {
+    out += " (a row of defects at the stated spacing)";
+  } else {
+    out += " (as given)";
+  }
+  if (run.cell.edge_disturbance) {
+    out += std::string("; the defects change the strain at its edge by ") +
+           printf_number("%.2g", 100.0 * *run.cell.edge_disturbance) + " %";
+  }
+  return out + ".\n";
+}
+
 }  // namespace
 
 std::string format_results_table(const RunResults& run, const OutputUnit& unit) {
@@ -219,6 +240,15 @@ std::string format_results_table(const RunResults& run, const OutputUnit& unit) 
   }
   out += std::string("\n") + cracked_line(run);
   out += completion_line(run);
+  out += cell_line(run, unit);
+  if (run.verification) {
+    out += std::string("Convergence check: ") + run.verification->verdict + ".\n";
+    for (const ConvergenceRerun& rerun : run.verification->reruns) {
+      out += std::string("  ") + rerun.what + ": largest change " +
+             printf_number("%.2f", 100.0 * rerun.largest_change) + " %" +
+             (rerun.completed ? std::string() : std::string(" (the rerun stopped early)")) + "\n";
+    }
+  }
   out += std::string("Mesh: ") + std::to_string(run.mesh.nodes) + " nodes, " +
          std::to_string(run.mesh.elements) + " elements, " + std::to_string(run.mesh.unknowns) +
          std::string(" unknowns, minimum quality ") + general(run.mesh.min_quality) +

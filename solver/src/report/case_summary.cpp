@@ -73,17 +73,19 @@ std::string defect_line(const DefectSpec& defect, const CaseSpec& spec) {
   std::ostringstream line;
   switch (defect.kind.value) {
     case DefectKind::pinhole:
-      line << "pinhole through \"" << defect.layer.value << "\"";
+      line << (disk ? "round pinhole" : "slit across the device") << " through \""
+           << defect.layer.value << "\"";
       break;
     case DefectKind::thin_spot:
-      line << "thin spot in \"" << defect.layer.value << "\", " << percent(defect.depth.value)
-           << " of its thickness missing";
+      line << (disk ? "thin spot" : "groove across the device") << " in \"" << defect.layer.value
+           << "\", " << percent(defect.depth.value) << " of its thickness missing";
       if (defect.taper.value > 0.0) {
         line << ", taper " << format_length(defect.taper.value, unit);
       }
       break;
     case DefectKind::delamination:
-      line << "delamination on the top face of \"" << defect.below.value << "\"";
+      line << (disk ? "delamination" : "delaminated band across the device")
+           << " on the top face of \"" << defect.below.value << "\"";
       break;
   }
   const std::string size_word = disk && defect.at.value == 0.0 ? "diameter" : "width";

@@ -51,7 +51,10 @@ enum class ContactKind { frictionless, bonded };
 [[nodiscard]] const char* unit_name(LengthUnit unit);
 [[nodiscard]] const char* shape_name(Shape shape);
 [[nodiscard]] const char* role_name(LayerRole role);
-[[nodiscard]] const char* defect_kind_name(DefectKind kind);
+// A hole through a layer is spelt by what it is in the modelled geometry: on
+// a strip (a plane-strain section) it runs across the whole device, a
+// "slit"; on a disk it is a round "pinhole" (or a ring when off the axis).
+[[nodiscard]] const char* defect_kind_name(DefectKind kind, Shape shape);
 [[nodiscard]] const char* fill_name(DefectFill fill);
 [[nodiscard]] const char* load_kind_name(LoadKind kind);
 [[nodiscard]] const char* surface_name(SurfaceKind kind);
@@ -70,7 +73,8 @@ struct TableLocation : SourceLocation {
 struct GeometrySpec {
   TableLocation where;  // the [geometry] header
   Located<Shape> shape;
-  Located<double> width;  // um
+  Located<double> width;           // um; when not given, chosen to isolate the defects
+  Located<double> defect_spacing;  // um; given: a row of defects, width = spacing / 2
   Located<bool> symmetric;
 
   bool operator==(const GeometrySpec& other) const = default;
@@ -150,6 +154,7 @@ struct ReportSpec {
   Located<double> averaging_radius;    // um
   Located<bool> fields;
   Located<bool> profiles;
+  Located<bool> verify;  // rerun with a finer mesh and a wider cell, report how the peaks moved
 
   bool operator==(const ReportSpec& other) const = default;
 };

@@ -95,6 +95,27 @@ struct LinearConstraint {
   ScaledValue value;
 };
 
+// The nodes of an edge set stay on one straight line, free to translate and
+// free to slide along it, turned by angle(lambda) (radians, clockwise: for a
+// positive angle the line leans towards +x going up) from the vertical. This
+// is the loaded end of a laminate in pure bending: plane sections stay plane
+// and radial, and each layer contracts or swells through its thickness
+// freely along the line (Timoshenko & Goodier, Theory of Elasticity, 1970,
+// pure bending of a bar; exact at finite rotation for a bonded laminate,
+// whose sections stay plane).
+//
+// Method: a penalty on each node's distance from the line through the set's
+// lowest node, g = a . (x_node - x_lowest), a = (cos angle, -sin angle), with
+// stiffness k w per node (k = penalty_factor E / h, w and h the node's share
+// of the set's area and length, E the stiffest material it touches), so the
+// line holds exactly at any rotation; the offset g is about
+// sigma h / (penalty_factor E).
+struct StraightEdge {
+  std::string edge_set;
+  ScaledValue angle;
+  double penalty_factor = 1e3;
+};
+
 // Pressure on the deformed face of an edge set (follower load), positive
 // pushing into the material. Its load stiffness is not symmetric; the model
 // then reports tangent_is_symmetric() == false.
@@ -186,6 +207,7 @@ struct ModelDefinition {
   std::vector<PrescribedDisplacement> displacements;
   std::vector<RigidFace> rigid_faces;
   std::vector<LinearConstraint> linear_constraints;
+  std::vector<StraightEdge> straight_edges;
   std::vector<FollowerPressure> pressures;
   std::vector<DeadTraction> tractions;
   std::vector<FaceContact> contacts;

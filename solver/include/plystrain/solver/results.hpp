@@ -34,8 +34,12 @@ struct LayerResult {
   double peak_strain = 0.0;          // averaged over report.averaging_radius
   std::array<double, 2> peak_at{};   // reference coordinates (x or r, z), um
   double raw_peak_strain = 0.0;      // integration-point peak (log only)
+  // Strain of the undisturbed state (the stack without its defects under
+  // the same load) in this layer at the peak's place.
   double far_field_strain = 0.0;
-  std::optional<double> concentration;  // null when the far field is below 1e-9
+  std::optional<double> concentration;  // peak / far field; null when the far field is below 1e-9
+  // Largest strain of the layer in the outer 5 % of the modelled width.
+  std::optional<double> strain_at_cell_edge;
   double min_strain = 0.0;
   double peak_stress = 0.0;          // MPa, largest principal Cauchy stress at peak_at
   std::optional<double> crack_onset_strain;
@@ -67,6 +71,52 @@ struct ConformResult {
   double max_penetration = 0.0;  // um, reported against the stated tolerance
 };
 
+// How far one defect disturbs the stack (estimated from the stack alone,
+// zone_of_influence.hpp) and whether the modelled width covers it.
+struct DefectZone {
+  int index = 0;                   // from 1, as in the case
+  std::string kind;                // as spelt in the case ("slit", "pinhole", ...)
+  double zone_of_influence = 0.0;  // um from the axis / symmetry plane
+  bool covered = false;            // the modelled width reaches at least that far
+};
+
+// The modelled cell: its width, why it is that wide, and how much the
+// defects still disturb the strain at its edge.
+struct CellFigures {
+  double width = 0.0;  // um
+  // "given", "isolating" (chosen to cover every zone of influence) or
+  // "defect spacing" (a row of defects, stated on purpose).
+  std::string width_basis;
+  // How far from the axis / symmetry plane the evaluation reaches: the
+  // whole width, except for conform, whose rim (a free edge or a clamp,
+  // singular) is left out over one stack thickness.
+  double evaluated_extent = 0.0;  // um
+  // Largest |strain at the cell edge / undisturbed strain - 1| over the
+  // layers (stretch and bend with defects); empty where not measured.
+  std::optional<double> edge_disturbance;
+};
+
+// One rerun of a case with one modelling choice changed, against the run.
+struct PeakChange {
+  std::string layer;
+  double peak = 0.0;        // governing peak strain of the run
+  double rerun_peak = 0.0;  // the same of the rerun
+  double change = 0.0;      // |rerun / run - 1|
+};
+struct ConvergenceRerun {
+  std::string what;    // "mesh near the defects halved", "width doubled"
+  std::string folder;  // the rerun's own output folder, relative to the run's
+  bool completed = false;
+  std::vector<PeakChange> layers;
+  double largest_change = 0.0;
+};
+struct ConvergenceReport {
+  double tolerance = 0.02;
+  std::vector<ConvergenceRerun> reruns;
+  bool converged = false;
+  std::string verdict;  // one sentence: "converged within 2 %: ..." or what moved
+};
+
 struct MeshFigures {
   int nodes = 0;
   int elements = 0;
@@ -96,6 +146,9 @@ struct RunResults {
   std::vector<LayerResult> layers;
   std::vector<LocalCheck> local;
   std::optional<ConformResult> conform;
+  CellFigures cell;
+  std::optional<ConvergenceReport> verification;
+  std::vector<DefectZone> defects;
   MeshFigures mesh;
   SolverFigures solver;
   std::vector<std::string> cautions;

@@ -18,6 +18,7 @@ struct RunOptions {
   // One line per converged increment and per notable event, for the terminal.
   std::function<void(const std::string&)> progress;
   int threads = 0;  // OpenMP threads for assembly; 0 = the OpenMP default
+  bool verify = false;  // as report.verify: rerun finer and wider, report how the peaks moved
 };
 
 struct RunOutcome {

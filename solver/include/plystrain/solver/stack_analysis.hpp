@@ -11,6 +11,7 @@
 #include "plystrain/solver/post.hpp"
 #include "plystrain/solver/results.hpp"
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -37,20 +38,39 @@ inline constexpr const char* anchor_node_set = "anchor";
 // The modelled kinematics for the report ("free", "held", a number, or "").
 [[nodiscard]] std::string lateral_text(const CaseSpec& spec);
 
+// The undisturbed state of a case: the same stack without its defects under
+// the same load. Stretch and bend leave it uniform along x (a laminate
+// state), so any of its points stands for any place; a conform device's
+// varies along the radius.
+struct UndisturbedState {
+  solver::PointResults points;
+  bool uniform_along_x = true;
+};
+
+// The case whose solution is the undisturbed state of `spec` at load factor
+// `load_factor` (the load scaled back for a run that stopped early):
+// without defects; for stretch and bend a narrow cell, since the laminate
+// state does not vary along x. Empty when the load cannot be scaled (a wrap
+// that stopped early).
+[[nodiscard]] std::optional<CaseSpec> undisturbed_case(const CaseSpec& spec, double load_factor);
+
 // Per-layer evaluation of one solved state (results-format.md "Per layer"):
-// the peak is the largest disc average over report.averaging_radius; the far
-// field is the peak within the far zone (see far_zone_start()).
+// the peak is the largest disc average over report.averaging_radius;
+// `far_field_strain` and `concentration` come from the undisturbed state at
+// the peak's place (left empty without one); `strain_at_cell_edge` is the
+// largest strain of the layer in the outer part of the modelled width.
 [[nodiscard]] std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
-                                                       const solver::PointResults& points);
+                                                       const solver::PointResults& points,
+                                                       const UndisturbedState* undisturbed);
 
 // How far along x (or r) the evaluation reaches (the whole width: the loaded
 // edges are consistent with the homogeneous or pure-bending state).
 [[nodiscard]] double evaluated_extent(const CaseSpec& spec);
 
-// Reference x (or r) from which the far zone runs to the evaluated extent: beyond
-// every defect by at least grade_over, or the outer tenth of the width when
-// the defects leave no room.
-[[nodiscard]] double far_zone_start(const CaseSpec& spec);
+// The outer part of the evaluated extent where `strain_at_cell_edge` is
+// read: from this fraction of it outwards.
+inline constexpr double edge_zone_fraction = 0.95;
+[[nodiscard]] double cell_edge_zone_start(const CaseSpec& spec);
 
 // Strain along each layer's mid-line: per column of integration points of a
 // layer (points sharing x), the point nearest the column's mid-height.
