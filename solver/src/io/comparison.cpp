@@ -263,10 +263,10 @@ std::string comparison_csv_text(const Comparison& comparison) {
 std::string comparison_text(const Comparison& comparison) {
   std::string out =
       std::string("Comparison of ") + std::to_string(comparison.runs.size()) +
-      " runs. Peak: largest principal nominal strain in %; margins: 1 - peak / limit; crack "
-      "at: the\nshare of the full load at which the peak first reached crack onset. The best run "
-      "of a layer has\nthe widest crack margin among the runs that completed (then the widest "
-      "yield margin, then the\nlowest peak).\n\n";
+      " runs. Peak: largest principal nominal strain in %; margins: 1 - peak / limit;\ncrack at: "
+      "the share of the full load at which the peak first reached crack onset. The best run\nof a "
+      "layer has the widest crack margin among the runs that completed (then the widest yield\n"
+      "margin, then the lowest peak).\n\n";
   const bool with_values = std::any_of(comparison.runs.begin(), comparison.runs.end(),
                                        [](const RunOutline& run) { return !run.value.empty(); });
   std::vector<std::vector<std::string>> run_rows;
