@@ -1,6 +1,7 @@
 // `plystrain compare CASE [--out DIR]`: run the case as written (into base/)
 // and each [[variant]] (into <variant>/), then write the side-by-side
-// comparison per layer.
+// comparison per layer. A case with a [sweep] is refused (the sweep runs
+// with `plystrain run`).
 #include "commands.hpp"
 
 #include "plystrain/solver/case_reader.hpp"
@@ -23,6 +24,14 @@ Command add_compare_command(CLI::App& app) {
   add_solve_options(*command, *options);
   return {command, [options] {
             const CaseSpec base = read_case(options->case_path);
+            if (base.sweep) {
+              // A sweep is run by `run`; comparing variants of a swept case
+              // would leave the reader to guess which value the variants had.
+              throw InputError(
+                  base.sweep->where, "sweep",
+                  "compare runs the case and its variants, not a sweep: run the sweep with "
+                  "`plystrain run`, or remove the [sweep] table to compare the variants");
+            }
             const std::vector<ResolvedCase> variants = resolve_variants(base);
             if (variants.empty()) {
               throw InputError(SourceLocation{base.source.string(), 0, 0}, "variant",

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 
 namespace plystrain {
 
@@ -17,6 +18,20 @@ const char* verdict_name(Verdict verdict) {
       return "unknown";
   }
   return "unknown";
+}
+
+const char* verdict_text(Verdict verdict) {
+  switch (verdict) {
+    case Verdict::intact:
+      return "intact";
+    case Verdict::yields:
+      return "yields";
+    case Verdict::cracks:
+      return "CRACKS";
+    case Verdict::unknown:
+      return "no limit data";
+  }
+  return "no limit data";
 }
 
 Verdict judge(double peak_strain, const std::optional<double>& crack_onset_strain,
@@ -76,6 +91,10 @@ void merge_into(LayerResult& governing, const LayerResult& other) {
   governing.raw_peak_strain = std::max(governing.raw_peak_strain, other.raw_peak_strain);
   governing.min_strain = std::min(governing.min_strain, other.min_strain);
   governing.crack_margin = smaller(governing.crack_margin, other.crack_margin);
+  governing.yield_margin = smaller(governing.yield_margin, other.yield_margin);
+  governing.crack_onset_load_factor =
+      smaller(governing.crack_onset_load_factor, other.crack_onset_load_factor);
+  governing.yield_load_factor = smaller(governing.yield_load_factor, other.yield_load_factor);
   governing.verdict = worse(governing.verdict, other.verdict);
 }
 
@@ -110,6 +129,101 @@ std::vector<LayerResult> governing_layers(const RunResults& run) {
     }
   }
   return governing;
+}
+
+Verdict overall_verdict(const RunResults& run) {
+  Verdict overall = Verdict::unknown;
+  for (const LayerResult& layer : governing_layers(run)) {
+    overall = worse(overall, layer.verdict);
+  }
+  return overall;
+}
+
+namespace {
+
+std::string count_of_layers(std::size_t count) {
+  return std::to_string(count) + (count == 1 ? " layer" : " layers");
+}
+
+std::string joined(const std::vector<std::string>& names) {
+  std::string text;
+  for (const std::string& name : names) {
+    text += (text.empty() ? "" : ", ") + name;
+  }
+  return text;
+}
+
+std::string load_percent(double load_factor) {
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, "%.4g", 100.0 * load_factor);
+  return buffer;
+}
+
+}  // namespace
+
+std::string headline(const RunResults& run) {
+  const std::vector<LayerResult> layers = governing_layers(run);
+  std::vector<std::string> cracking;
+  std::vector<std::string> yielding;
+  std::vector<std::string> intact;
+  std::vector<std::string> without_limits;
+  for (const LayerResult& layer : layers) {
+    switch (layer.verdict) {
+      case Verdict::cracks:
+        cracking.push_back(layer.name);
+        break;
+      case Verdict::yields:
+        yielding.push_back(layer.name);
+        break;
+      case Verdict::intact:
+        intact.push_back(layer.name);
+        break;
+      case Verdict::unknown:
+        without_limits.push_back(layer.name);
+        break;
+    }
+  }
+  const std::string total = std::to_string(layers.size());
+  std::vector<std::string> parts;
+  // The first part names the total ("2 of 4 layers crack"); later parts
+  // count against it.
+  const auto counted = [&](const std::vector<std::string>& names, const char* one,
+                           const char* several) {
+    const std::string verb = names.size() == 1 ? one : several;
+    if (parts.empty()) {
+      parts.push_back(std::to_string(names.size()) + " of " + total +
+                      (layers.size() == 1 ? " layer " : " layers ") + verb + ": " + joined(names));
+    } else {
+      parts.push_back(std::to_string(names.size()) + " " + verb + ": " + joined(names));
+    }
+  };
+  if (!cracking.empty()) {
+    counted(cracking, "cracks", "crack");
+  }
+  if (!yielding.empty()) {
+    counted(yielding, "yields", "yield");
+  }
+  if (cracking.empty() && yielding.empty() && !intact.empty()) {
+    parts.push_back(intact.size() == layers.size() && layers.size() > 1
+                        ? "all " + total + " layers intact"
+                        : std::to_string(intact.size()) + " of " + count_of_layers(layers.size()) +
+                              " intact");
+  }
+  if (!without_limits.empty()) {
+    parts.push_back(count_of_layers(without_limits.size()) +
+                    " without limit data: " + joined(without_limits));
+  }
+  if (layers.empty()) {
+    parts.push_back("no layers evaluated");
+  }
+  parts.push_back(run.completed ? "load reached " + load_percent(run.load_reached) + " %"
+                                : "load stopped at " + load_percent(run.load_reached) +
+                                      " %; the verdicts are for that state");
+  std::string text;
+  for (const std::string& part : parts) {
+    text += (text.empty() ? "" : "; ") + part;
+  }
+  return text;
 }
 
 }  // namespace plystrain

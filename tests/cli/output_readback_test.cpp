@@ -249,7 +249,8 @@ TEST_CASE("results.json carries every documented key with its documented type",
           "[cli][outputs][results-json]") {
   // Source: results-format.md ("results.json", "Per layer") and
   // docs/results-format-notes.md (additions: case_hash, units, basis,
-  // raw_peak_strain, overall_verdicts).
+  // raw_peak_strain, overall_verdicts, headline, verdict, yield_margin and
+  // the load factors at the limits).
   const std::filesystem::path out = run_to("run", "cli/fields-small-disk.toml", "results-json");
   const nlohmann::json results = json_file(out / "results.json");
   using enum Kind;
@@ -259,6 +260,8 @@ TEST_CASE("results.json carries every documented key with its documented type",
               {"case", {string}},
               {"case_hash", {string}},
               {"title", {string}},
+              {"headline", {string}},
+              {"verdict", {string}},
               {"units", {string}},
               {"model", {object}},
               {"completed", {boolean}},
@@ -329,6 +332,9 @@ TEST_CASE("results.json carries every documented key with its documented type",
                 {"crack_onset_strain", {number, null}},
                 {"yield_strain", {number, null}},
                 {"crack_margin", {number, null}},
+                {"yield_margin", {number, null}},
+                {"crack_onset_load_factor", {number, null}},
+                {"yield_load_factor", {number, null}},
                 {"verdict", {string}}},
                where);
     INFO(where);
@@ -352,6 +358,17 @@ TEST_CASE("results.json carries every documented key with its documented type",
     } else {
       CHECK(layer["crack_margin"].is_null());
     }
+    if (layer["yield_strain"].is_number()) {
+      CHECK(layer["yield_margin"].get<double>() ==
+            Approx(1.0 - peak / layer["yield_strain"].get<double>()).epsilon(1e-12));
+    } else {
+      CHECK(layer["yield_margin"].is_null());
+    }
+    // Under this monotone stretch a layer that does not crack at the full
+    // load never reached its onset on the way.
+    if (layer["verdict"] != "cracks") {
+      CHECK(layer["crack_onset_load_factor"].is_null());
+    }
   }
   // The materials' limits (check-materials.toml): the base has none, the
   // film cracks at 2 %, and a 0.2 % stretch leaves it intact.
@@ -365,6 +382,10 @@ TEST_CASE("results.json carries every documented key with its documented type",
   CHECK(results["layers"][1]["crack_onset_strain"].get<double>() == 0.02);
   CHECK(results["layers"][1]["yield_strain"].is_null());
   CHECK(results["layers"][1]["verdict"] == "intact");
+  // Overall: the worst of intact and unknown is intact.
+  CHECK(results["verdict"] == "intact");
+  CHECK(results["headline"] ==
+        "1 of 2 layers intact; 1 layer without limit data: base; load reached 100 %");
   std::filesystem::remove_all(out);
 }
 
@@ -373,7 +394,8 @@ TEST_CASE("compare: one directory per run, comparison files, the best run per la
   // Source: results-format.md ("Layout of an output directory": base/ and
   // one directory per variant; comparison.json/.csv/.txt, one row per run
   // and layer) and docs/results-format-notes.md ("Comparison files": the
-  // CSV columns, `absent` layers, best = lowest peak among completed runs).
+  // CSV columns, `absent` layers, best = widest crack margin among completed
+  // runs, the lowest peak where no run has limit data).
   const std::filesystem::path out = run_to("compare", "cli/compare-small-strip.toml", "compare");
   const std::vector<std::string> runs = {"base", "uncovered", "thick-film"};
   const std::vector<std::string> layers = {"base", "film", "cover"};
@@ -391,14 +413,22 @@ TEST_CASE("compare: one directory per run, comparison files, the best run per la
   }
 
   // The best run of each layer, found here from the runs' own results.json:
-  // the lowest peak strain among the completed runs that have the layer.
+  // the widest crack margin among the completed runs that have the layer
+  // (film and cover have a crack onset); the lowest peak strain for the base,
+  // which has no limit data in any run.
   std::map<std::string, std::string> best_run;
   for (const std::string& layer_name : layers) {
-    double lowest = std::numeric_limits<double>::infinity();
+    double best_score = -std::numeric_limits<double>::infinity();
     for (const std::string& run : runs) {
       for (const nlohmann::json& layer : results[run]["layers"]) {
-        if (layer["name"] == layer_name && layer["peak_strain"].get<double>() < lowest) {
-          lowest = layer["peak_strain"].get<double>();
+        if (layer["name"] != layer_name) {
+          continue;
+        }
+        const double score = layer["crack_margin"].is_number()
+                                 ? layer["crack_margin"].get<double>()
+                                 : -layer["peak_strain"].get<double>();
+        if (score > best_score) {
+          best_score = score;
           best_run[layer_name] = run;
         }
       }
@@ -453,16 +483,18 @@ TEST_CASE("compare: one directory per run, comparison files, the best run per la
   std::istringstream csv(read_text(out / "comparison.csv"));
   std::string line;
   REQUIRE(std::getline(csv, line));
-  CHECK(line == "variant,layer,peak_strain,concentration,crack_margin,verdict,best,completed");
+  CHECK(line ==
+        "variant,layer,peak_strain,concentration,crack_margin,verdict,best,completed,yield_margin,"
+        "crack_onset_load_factor,yield_load_factor");
   int csv_rows = 0;
   while (std::getline(csv, line)) {
     ++csv_rows;
     if (line.rfind("uncovered,cover,", 0) == 0) {
-      CHECK(line == "uncovered,cover,,,,absent,false,true");
+      CHECK(line == "uncovered,cover,,,,absent,false,true,,,");
     }
     for (const std::string& layer_name : layers) {
       if (line.rfind(best_run[layer_name] + "," + layer_name + ",", 0) == 0) {
-        CHECK(line.find(",true,true") != std::string::npos);
+        CHECK(line.find(",true,true,") != std::string::npos);
       }
     }
   }

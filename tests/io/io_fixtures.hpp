@@ -58,6 +58,9 @@ inline LayerResult cracked_absorber() {
   layer.crack_onset_strain = 0.2;
   layer.yield_strain = 0.04;
   layer.crack_margin = 1.0 - layer.peak_strain / 0.2;
+  layer.yield_margin = 1.0 - layer.peak_strain / 0.04;
+  layer.crack_onset_load_factor = 0.55;  // within the load reached by sample_run (0.625)
+  layer.yield_load_factor = 0.11;
   layer.verdict = judge(layer.peak_strain, layer.crack_onset_strain, layer.yield_strain);
   return layer;
 }

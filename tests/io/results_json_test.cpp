@@ -34,7 +34,8 @@ void check_layer_types(const json& layer) {
     REQUIRE(layer.contains(key));
     CHECK(layer[key].is_number());
   }
-  for (const char* key : {"concentration", "crack_onset_strain", "yield_strain", "crack_margin"}) {
+  for (const char* key : {"concentration", "crack_onset_strain", "yield_strain", "crack_margin",
+                          "yield_margin", "crack_onset_load_factor", "yield_load_factor"}) {
     INFO(key);
     REQUIRE(layer.contains(key));
     CHECK((layer[key].is_number() || layer[key].is_null()));
@@ -78,6 +79,23 @@ TEST_CASE("results.json has every documented key with its type", "[results_json]
   CHECK(document["cautions"][0] == "A run-specific caution.");
   CHECK(document["cautions"].size() == 1 + plystrain::standard_cautions().size());
   CHECK(document["overall_verdicts"] == json{{"substrate", "unknown"}, {"absorber", "cracks"}});
+  // The overall verdict is the worst over the layers (cracks over unknown,
+  // results-format-notes.md); the headline is the summary's first line.
+  CHECK(document["verdict"] == "cracks");
+  CHECK(document["headline"] == plystrain::headline(run));
+  CHECK(document["headline"].get<std::string>().find("1 of 2 layers cracks: absorber") == 0);
+}
+
+TEST_CASE("results.json: overall verdict unknown only when no layer has limit data",
+          "[results_json]") {
+  plystrain::RunResults run = plystrain::test::sample_run();
+  run.layers = {plystrain::test::substrate_without_limits()};
+  CHECK(json::parse(plystrain::results_json_text(run, {"um", 1.0}))["verdict"] == "unknown");
+  plystrain::LayerResult film = plystrain::test::cracked_absorber();
+  film.peak_strain = 0.01;
+  film.verdict = plystrain::judge(0.01, film.crack_onset_strain, film.yield_strain);
+  run.layers.push_back(film);
+  CHECK(json::parse(plystrain::results_json_text(run, {"um", 1.0}))["verdict"] == "intact");
 }
 
 TEST_CASE("results.json layer values: nulls, case unit and exact round trip", "[results_json]") {
@@ -93,6 +111,9 @@ TEST_CASE("results.json layer values: nulls, case unit and exact round trip", "[
   CHECK(substrate["crack_onset_strain"].is_null());
   CHECK(substrate["yield_strain"].is_null());
   CHECK(substrate["crack_margin"].is_null());
+  CHECK(substrate["yield_margin"].is_null());
+  CHECK(substrate["crack_onset_load_factor"].is_null());
+  CHECK(substrate["yield_load_factor"].is_null());
   CHECK(substrate["verdict"] == "unknown");
   CHECK(substrate["thickness"].get<double>() == 150.0 / 1000.0);
 
@@ -103,6 +124,10 @@ TEST_CASE("results.json layer values: nulls, case unit and exact round trip", "[
   CHECK(absorber["peak_strain"].get<double>() == expected.peak_strain);
   CHECK(absorber["concentration"].get<double>() == *expected.concentration);
   CHECK(absorber["crack_margin"].get<double>() == *expected.crack_margin);
+  // yield_margin = 1 - peak / yield strain (results-format-notes.md).
+  CHECK(absorber["yield_margin"].get<double>() == 1.0 - expected.peak_strain / 0.04);
+  CHECK(absorber["crack_onset_load_factor"].get<double>() == 0.55);
+  CHECK(absorber["yield_load_factor"].get<double>() == 0.11);
   CHECK(absorber["crack_onset_strain"].get<double>() == 0.2);
   CHECK(absorber["yield_strain"].get<double>() == 0.04);
   CHECK(absorber["raw_peak_strain"].get<double>() == 0.45);

@@ -146,6 +146,9 @@ std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
     if (result.crack_onset_strain) {
       result.crack_margin = 1.0 - result.peak_strain / *result.crack_onset_strain;
     }
+    if (result.yield_strain) {
+      result.yield_margin = 1.0 - result.peak_strain / *result.yield_strain;
+    }
     result.verdict = judge(result.peak_strain, result.crack_onset_strain, result.yield_strain);
     layers.push_back(result);
   }
@@ -265,10 +268,20 @@ std::vector<LayerResult> envelope(const std::vector<std::vector<LayerResult>>& r
       const LayerResult& other = runs[run][i];
       LayerResult& layer = combined[i];
       const double min_strain = std::min(layer.min_strain, other.min_strain);
+      // The governing crossing of several solves is the earliest.
+      const auto earliest = [](const std::optional<double>& a, const std::optional<double>& b) {
+        return a && b ? std::optional<double>(std::min(*a, *b)) : (a ? a : b);
+      };
+      const std::optional<double> crack_onset_load_factor =
+          earliest(layer.crack_onset_load_factor, other.crack_onset_load_factor);
+      const std::optional<double> yield_load_factor =
+          earliest(layer.yield_load_factor, other.yield_load_factor);
       if (other.peak_strain > layer.peak_strain) {
         layer = other;
       }
       layer.min_strain = min_strain;
+      layer.crack_onset_load_factor = crack_onset_load_factor;
+      layer.yield_load_factor = yield_load_factor;
     }
   }
   return combined;

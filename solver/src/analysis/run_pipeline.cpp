@@ -8,6 +8,7 @@
 #include "plystrain/solver/case_writer.hpp"
 #include "plystrain/solver/convergence_check.hpp"
 #include "plystrain/solver/field_writer.hpp"
+#include "plystrain/solver/limit_crossings.hpp"
 #include "plystrain/solver/linear_solver.hpp"
 #include "plystrain/solver/local_checks.hpp"
 #include "plystrain/solver/results_writers.hpp"
@@ -372,6 +373,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
     // Time in the field series: the run index plus the load factor, so the
     // slider plays each bend radius in turn.
     const double time_offset = static_cast<double>(index);
+    LimitCrossings crossings;
     solver::LoadStepperCallbacks callbacks;
     callbacks.on_iteration = [&](int attempt, const solver::NewtonIterationRecord& record) {
       std::ostringstream line;
@@ -407,10 +409,15 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
                  " negative eigenvalues here (LDL' inertia): an unstable equilibrium");
       }
       say(line.str());
-      if (fields && increment.q.size() > 0) {
+      // Every converged state is evaluated for the load factors at which the
+      // layers reach their limits, whether or not fields are written.
+      if (increment.q.size() > 0) {
         const solver::PointResults points =
             solver::evaluate_points(model, increment.q, increment.load_factor);
         if (points.status.ok()) {
+          crossings.add(increment.load_factor, evaluate_layers(spec, points, nullptr));
+        }
+        if (fields && points.status.ok()) {
           FieldSnapshot snapshot =
               make_field_snapshot(spec, model, points, increment.q, increment.load_factor);
           snapshot.load_factor = time_offset + increment.load_factor;
@@ -475,6 +482,8 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
     }
     std::vector<LayerResult> layers =
         evaluate_layers(spec, points, undisturbed ? &*undisturbed : nullptr);
+    crossings.add(path.load_factor, layers);
+    crossings.apply_to(layers);
     for (std::size_t i = 0; i < layers.size(); ++i) {
       log.line(prefix + "layer " + layers[i].name +
                format(": peak %.6g (raw integration-point peak %.6g), undisturbed %.6g",

@@ -22,15 +22,31 @@ bool nearly_equal(double a, double b) {
   return a == b || std::abs(a - b) <= 1e-9 * std::max(std::abs(a), std::abs(b));
 }
 
-double margin_or_lowest(const ComparisonEntry& entry) {
-  return entry.crack_margin ? *entry.crack_margin : -std::numeric_limits<double>::infinity();
+// -1 when `a` ranks below `b`, 0 when they tie, 1 when above: a wider
+// margin ranks higher, a margin ranks above none, two absent margins tie.
+int rank_margins(const std::optional<double>& a, const std::optional<double>& b) {
+  if (!a || !b) {
+    return (a ? 1 : 0) - (b ? 1 : 0);
+  }
+  if (nearly_equal(*a, *b)) {
+    return 0;
+  }
+  return *a > *b ? 1 : -1;
 }
 
-bool margins_equal(const ComparisonEntry& a, const ComparisonEntry& b) {
-  if (!a.crack_margin || !b.crack_margin) {
-    return !a.crack_margin && !b.crack_margin;
+// The order of the best run: crack margin, then yield margin, then the
+// lower peak strain.
+int rank(const ComparisonEntry& a, const ComparisonEntry& b) {
+  if (const int by_crack = rank_margins(a.crack_margin, b.crack_margin); by_crack != 0) {
+    return by_crack;
   }
-  return nearly_equal(*a.crack_margin, *b.crack_margin);
+  if (const int by_yield = rank_margins(a.yield_margin, b.yield_margin); by_yield != 0) {
+    return by_yield;
+  }
+  if (nearly_equal(*a.peak_strain, *b.peak_strain)) {
+    return 0;
+  }
+  return *a.peak_strain < *b.peak_strain ? 1 : -1;
 }
 
 bool can_be_best(const ComparisonEntry& entry) {
@@ -42,19 +58,11 @@ void mark_best(std::vector<ComparisonEntry*>& candidates) {
   if (candidates.empty()) {
     return;
   }
-  double lowest = std::numeric_limits<double>::infinity();
-  for (const ComparisonEntry* entry : candidates) {
-    lowest = std::min(lowest, *entry->peak_strain);
-  }
-  std::erase_if(candidates, [lowest](const ComparisonEntry* entry) {
-    return !nearly_equal(*entry->peak_strain, lowest);
-  });
-  const ComparisonEntry* widest = *std::max_element(
-      candidates.begin(), candidates.end(), [](const ComparisonEntry* a, const ComparisonEntry* b) {
-        return margin_or_lowest(*a) < margin_or_lowest(*b);
-      });
+  const ComparisonEntry* top = *std::max_element(
+      candidates.begin(), candidates.end(),
+      [](const ComparisonEntry* a, const ComparisonEntry* b) { return rank(*a, *b) < 0; });
   for (ComparisonEntry* entry : candidates) {
-    entry->best = margins_equal(*entry, *widest);
+    entry->best = rank(*entry, *top) == 0;
   }
 }
 
@@ -125,9 +133,15 @@ const ComparisonEntry& Comparison::entry(const std::string& run, const std::stri
 }
 
 Comparison compare_runs(const RunResults& base, const std::vector<NamedRun>& variants) {
-  std::vector<std::pair<std::string, const RunResults*>> runs = {{"base", &base}};
-  for (const NamedRun& variant : variants) {
-    runs.emplace_back(variant.name, &variant.results);
+  std::vector<NamedRun> runs = {NamedRun{"base", base}};
+  runs.insert(runs.end(), variants.begin(), variants.end());
+  return compare_runs(runs);
+}
+
+Comparison compare_runs(const std::vector<NamedRun>& named_runs) {
+  std::vector<std::pair<std::string, const RunResults*>> runs;
+  for (const NamedRun& run : named_runs) {
+    runs.emplace_back(run.name, &run.results);
   }
   std::set<std::string> names;
   for (const auto& [name, results] : runs) {
@@ -138,8 +152,11 @@ Comparison compare_runs(const RunResults& base, const std::vector<NamedRun>& var
 
   Comparison comparison;
   std::vector<std::vector<LayerResult>> governing;
-  for (const auto& [name, results] : runs) {
-    comparison.runs.push_back({name, results->completed, results->load_reached, results->message});
+  for (std::size_t r = 0; r < runs.size(); ++r) {
+    const RunResults* results = runs[r].second;
+    comparison.runs.push_back({runs[r].first, results->completed, results->load_reached,
+                               results->message, "", headline(*results),
+                               overall_verdict(*results)});
     governing.push_back(governing_layers(*results));
     for (const LayerResult& layer : governing.back()) {
       if (std::find(comparison.layers.begin(), comparison.layers.end(), layer.name) ==
@@ -164,6 +181,9 @@ Comparison compare_runs(const RunResults& base, const std::vector<NamedRun>& var
         entry.concentration = found->concentration;
         entry.crack_margin = found->crack_margin;
         entry.verdict = found->verdict;
+        entry.yield_margin = found->yield_margin;
+        entry.crack_onset_load_factor = found->crack_onset_load_factor;
+        entry.yield_load_factor = found->yield_load_factor;
       }
       comparison.entries.push_back(entry);
     }
@@ -189,7 +209,9 @@ std::string comparison_json_text(const Comparison& comparison) {
     runs.push_back(Json{{"name", run.name},
                         {"completed", run.completed},
                         {"load_reached", optional_number(run.load_reached)},
-                        {"message", run.message}});
+                        {"message", run.message},
+                        {"headline", run.headline},
+                        {"verdict", verdict_name(run.verdict)}});
   }
   out["runs"] = runs;
   out["layers"] = comparison.layers;
@@ -214,19 +236,26 @@ std::string comparison_json_text(const Comparison& comparison) {
                         {"crack_margin", optional_number(entry.crack_margin)},
                         {"verdict", entry.present ? Json(verdict_label(entry)) : Json(nullptr)},
                         {"best", entry.best},
-                        {"completed", entry.completed}});
+                        {"completed", entry.completed},
+                        {"yield_margin", optional_number(entry.yield_margin)},
+                        {"crack_onset_load_factor", optional_number(entry.crack_onset_load_factor)},
+                        {"yield_load_factor", optional_number(entry.yield_load_factor)}});
   }
   out["rows"] = rows;
   return out.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
 }
 
 std::string comparison_csv_text(const Comparison& comparison) {
-  std::string out = "variant,layer,peak_strain,concentration,crack_margin,verdict,best,completed\n";
+  std::string out =
+      "variant,layer,peak_strain,concentration,crack_margin,verdict,best,completed,yield_margin,"
+      "crack_onset_load_factor,yield_load_factor\n";
   for (const ComparisonEntry& entry : comparison.entries) {
     out += csv_field(entry.run) + "," + csv_field(entry.layer) + "," +
            csv_number(entry.peak_strain) + "," + csv_number(entry.concentration) + "," +
            csv_number(entry.crack_margin) + "," + verdict_label(entry) + "," +
-           (entry.best ? "true" : "false") + "," + (entry.completed ? "true" : "false") + "\n";
+           (entry.best ? "true" : "false") + "," + (entry.completed ? "true" : "false") + "," +
+           csv_number(entry.yield_margin) + "," + csv_number(entry.crack_onset_load_factor) + "," +
+           csv_number(entry.yield_load_factor) + "\n";
   }
   return out;
 }
@@ -234,18 +263,27 @@ std::string comparison_csv_text(const Comparison& comparison) {
 std::string comparison_text(const Comparison& comparison) {
   std::string out =
       std::string("Comparison of ") + std::to_string(comparison.runs.size()) +
-      " runs. Peak strain: largest principal nominal strain in %; margin: 1 - peak / crack "
-      "onset. The best run of a layer has the lowest peak among the runs that completed.\n\n";
+      " runs. Peak: largest principal nominal strain in %; margins: 1 - peak / limit;\ncrack at: "
+      "the share of the full load at which the peak first reached crack onset. The best run\nof a "
+      "layer has the widest crack margin among the runs that completed (then the widest yield\n"
+      "margin, then the lowest peak).\n\n";
+  const bool with_values = std::any_of(comparison.runs.begin(), comparison.runs.end(),
+                                       [](const RunOutline& run) { return !run.value.empty(); });
   std::vector<std::vector<std::string>> run_rows;
   for (const RunOutline& run : comparison.runs) {
-    run_rows.push_back(
-        {run.name, run.completed
-                       ? std::string("completed")
-                       : std::string("STOPPED EARLY at load factor ") +
-                             printf_number("%.4g", run.load_reached) +
-                             (run.message.empty() ? "" : std::string(": ") + run.message)});
+    std::vector<std::string> row = {run.name};
+    if (with_values) {
+      row.push_back(run.value);
+    }
+    row.push_back(run.completed ? run.headline
+                                : std::string("STOPPED EARLY at load factor ") +
+                                      printf_number("%.4g", run.load_reached) +
+                                      (run.message.empty() ? "" : std::string(": ") + run.message));
+    run_rows.push_back(row);
   }
-  out += render_table({"run", "status"}, run_rows);
+  out += render_table(with_values ? std::vector<std::string>{"run", "value", "status"}
+                                  : std::vector<std::string>{"run", "status"},
+                      run_rows);
   for (const std::string& layer : comparison.layers) {
     out += std::string("\nLayer ") + layer + "\n";
     std::vector<std::vector<std::string>> rows;
@@ -254,17 +292,20 @@ std::string comparison_text(const Comparison& comparison) {
         continue;
       }
       if (!entry.present) {
-        rows.push_back({entry.run, "absent", "", "", "", ""});
+        rows.push_back({entry.run, "absent", "", "", "", "", "", ""});
         continue;
       }
       const Verdict verdict = entry.verdict.value_or(Verdict::unknown);
       rows.push_back({entry.run, shown(entry.peak_strain, "%.3f", 100.0),
                       shown(entry.concentration, "%.3g", 1.0),
                       shown(entry.crack_margin, "%+.3f", 1.0),
-                      verdict == Verdict::cracks ? "CRACKS" : verdict_name(verdict),
+                      shown(entry.yield_margin, "%+.3f", 1.0),
+                      shown(entry.crack_onset_load_factor, "%.3g", 100.0), verdict_text(verdict),
                       entry.best ? "<- best" : ""});
     }
-    out += render_table({"run", "peak %", "conc.", "margin", "verdict", ""}, rows);
+    out += render_table({"run", "peak %", "conc.", "crack margin", "yield margin",
+                         "crack at load %", "verdict", ""},
+                        rows);
   }
   return out;
 }
@@ -273,6 +314,72 @@ void write_comparison_files(const std::filesystem::path& directory, const Compar
   write_file_atomically(directory / "comparison.json", comparison_json_text(comparison));
   write_file_atomically(directory / "comparison.csv", comparison_csv_text(comparison));
   write_file_atomically(directory / "comparison.txt", comparison_text(comparison));
+}
+
+std::string sweep_csv_text(const Comparison& sweep, const std::string& parameter) {
+  std::string out =
+      "run,parameter,value,layer,peak_strain,concentration,crack_margin,yield_margin,verdict,"
+      "crack_onset_load_factor,yield_load_factor,best,completed\n";
+  for (const ComparisonEntry& entry : sweep.entries) {
+    const auto run = std::find_if(sweep.runs.begin(), sweep.runs.end(),
+                                  [&entry](const RunOutline& r) { return r.name == entry.run; });
+    const std::string value = run == sweep.runs.end() ? std::string() : run->value;
+    out += csv_field(entry.run) + "," + csv_field(parameter) + "," + csv_field(value) + "," +
+           csv_field(entry.layer) + "," + csv_number(entry.peak_strain) + "," +
+           csv_number(entry.concentration) + "," + csv_number(entry.crack_margin) + "," +
+           csv_number(entry.yield_margin) + "," + verdict_label(entry) + "," +
+           csv_number(entry.crack_onset_load_factor) + "," + csv_number(entry.yield_load_factor) +
+           "," + (entry.best ? "true" : "false") + "," + (entry.completed ? "true" : "false") +
+           "\n";
+  }
+  return out;
+}
+
+std::string sweep_json_text(const Comparison& sweep, const std::string& parameter) {
+  // The comparison document with the parameter, and each run's and row's
+  // value beside its name.
+  Json out = Json::parse(comparison_json_text(sweep));
+  Json document;
+  document["format"] = 1;
+  document["parameter"] = parameter;
+  for (std::size_t r = 0; r < sweep.runs.size(); ++r) {
+    Json& run = out["runs"][r];
+    Json entry;
+    entry["name"] = run["name"];
+    entry["value"] = sweep.runs[r].value;
+    for (auto item = run.begin(); item != run.end(); ++item) {
+      if (item.key() != "name") {
+        entry[item.key()] = item.value();
+      }
+    }
+    run = entry;
+  }
+  document["runs"] = out["runs"];
+  document["layers"] = out["layers"];
+  document["best"] = out["best"];
+  Json rows = Json::array();
+  for (const Json& row : out["rows"]) {
+    Json entry;
+    entry["run"] = row["variant"];
+    const auto run = std::find_if(sweep.runs.begin(), sweep.runs.end(),
+                                  [&row](const RunOutline& r) { return row["variant"] == r.name; });
+    entry["value"] = run == sweep.runs.end() ? std::string() : run->value;
+    for (auto item = row.begin(); item != row.end(); ++item) {
+      if (item.key() != "variant") {
+        entry[item.key()] = item.value();
+      }
+    }
+    rows.push_back(entry);
+  }
+  document["rows"] = rows;
+  return document.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
+}
+
+void write_sweep_files(const std::filesystem::path& directory, const Comparison& sweep,
+                       const std::string& parameter) {
+  write_file_atomically(directory / "sweep.json", sweep_json_text(sweep, parameter));
+  write_file_atomically(directory / "sweep.csv", sweep_csv_text(sweep, parameter));
+  write_file_atomically(directory / "sweep.txt", comparison_text(sweep));
 }
 
 }  // namespace plystrain

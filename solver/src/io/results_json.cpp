@@ -64,6 +64,9 @@ Json layer_json(const LayerResult& layer, const OutputUnit& unit) {
   out["crack_onset_strain"] = optional_number(layer.crack_onset_strain);
   out["yield_strain"] = optional_number(layer.yield_strain);
   out["crack_margin"] = optional_number(layer.crack_margin);
+  out["yield_margin"] = optional_number(layer.yield_margin);
+  out["crack_onset_load_factor"] = optional_number(layer.crack_onset_load_factor);
+  out["yield_load_factor"] = optional_number(layer.yield_load_factor);
   out["verdict"] = verdict_name(layer.verdict);
   return out;
 }
@@ -113,6 +116,8 @@ std::string results_json_text(const RunResults& run, const OutputUnit& unit) {
   out["case"] = run.case_file;
   out["case_hash"] = run.case_hash;
   out["title"] = run.title;
+  out["headline"] = headline(run);
+  out["verdict"] = verdict_name(overall_verdict(run));
   out["units"] = unit.name;
   out["model"] =
       Json{{"shape", run.shape}, {"load", run.load}, {"lateral", lateral_value(run.lateral)}};

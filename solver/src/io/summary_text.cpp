@@ -67,9 +67,10 @@ std::string place(const std::array<double, 2>& micrometres, const OutputUnit& un
          printf_number("%.6g", micrometres[1] / unit.length_scale) + ")";
 }
 
-std::string verdict_text(Verdict verdict) {
-  // A crack is the one verdict the reader must not overlook.
-  return verdict == Verdict::cracks ? "CRACKS" : verdict_name(verdict);
+// Load factor as a percentage of the full load; "-" when the limit was not
+// reached.
+std::string load_share(const std::optional<double>& load_factor) {
+  return load_factor ? printf_number("%.3g", 100.0 * *load_factor) : std::string("-");
 }
 
 struct Column {
@@ -77,12 +78,15 @@ struct Column {
   bool numeric = false;
 };
 
-// Text table: numeric columns right-aligned, others left-aligned.
+// Text table: numeric columns right-aligned, others left-aligned. A
+// non-empty `top` is a header line above the column names (one entry per
+// column), so that columns can stay narrow.
 std::string render_table(const std::vector<Column>& columns,
-                         const std::vector<std::vector<std::string>>& rows) {
+                         const std::vector<std::vector<std::string>>& rows,
+                         const std::vector<std::string>& top = {}) {
   std::vector<std::size_t> widths(columns.size(), 0);
   for (std::size_t c = 0; c < columns.size(); ++c) {
-    widths[c] = columns[c].header.size();
+    widths[c] = std::max(columns[c].header.size(), top.empty() ? 0 : top[c].size());
     for (const auto& row : rows) {
       widths[c] = std::max(widths[c], row[c].size());
     }
@@ -103,48 +107,67 @@ std::string render_table(const std::vector<Column>& columns,
   for (const Column& column : columns) {
     headers.push_back(column.header);
   }
-  std::string out = line(headers);
+  std::string out = top.empty() ? std::string() : line(top);
+  out += line(headers);
   for (const auto& row : rows) {
     out += line(row);
   }
   return out;
 }
 
-std::string layer_table(const std::vector<LayerResult>& layers, const OutputUnit& unit) {
+// The verdicts at a glance: peak, concentration, most compressive strain,
+// both margins, the load at which each limit was first reached, verdict.
+std::string layer_table(const std::vector<LayerResult>& layers) {
+  const std::vector<std::string> top = {"",      "",      "peak",     "",         "min",
+                                        "crack", "yield", "crack at", "yield at", ""};
   const std::vector<Column> columns = {
-      {"", false},
-      {"layer", false},
-      {"role", false},
-      {"peak %", true},
-      {std::string("at (x, z) ") + unit.name, false},
-      {"undisturbed %", true},
-      {"conc.", true},
-      {"min %", true},
-      {"stress MPa", true},
-      {"crack onset %", true},
-      {"margin", true},
-      {"verdict", false},
-      {"basis", false},
+      {"", false},      {"layer", false}, {"%", true},      {"conc.", true},  {"%", true},
+      {"margin", true}, {"margin", true}, {"load %", true}, {"load %", true}, {"verdict", false},
   };
   std::vector<std::vector<std::string>> rows;
   for (const LayerResult& layer : layers) {
     rows.push_back({
         layer.verdict == Verdict::cracks ? ">>" : "",
         layer.name,
-        layer.role,
         percent(layer.peak_strain),
-        place(layer.peak_at, unit),
-        percent(layer.far_field_strain),
         optional_text(layer.concentration, ratio),
         percent(layer.min_strain),
+        optional_text(layer.crack_margin, margin),
+        optional_text(layer.yield_margin, margin),
+        load_share(layer.crack_onset_load_factor),
+        load_share(layer.yield_load_factor),
+        verdict_text(layer.verdict),
+    });
+  }
+  return render_table(columns, rows, top);
+}
+
+// What the verdicts rest on: where the peak is, the undisturbed strain, the stress
+// there, the material's crack-onset and yield strains and their basis.
+std::string detail_table(const std::vector<LayerResult>& layers, const OutputUnit& unit) {
+  const std::vector<Column> columns = {
+      {"layer", false},      {std::string("peak at (x, z) ") + unit.name, false},
+      {"undisturbed %", true}, {"stress MPa", true},
+      {"onset %", true},     {"yield %", true},
+      {"basis", false},
+  };
+  std::vector<std::vector<std::string>> rows;
+  for (const LayerResult& layer : layers) {
+    rows.push_back({
+        layer.name,
+        place(layer.peak_at, unit),
+        percent(layer.far_field_strain),
         general(layer.peak_stress),
         optional_text(layer.crack_onset_strain, percent),
-        optional_text(layer.crack_margin, margin),
-        verdict_text(layer.verdict),
+        optional_text(layer.yield_strain, percent),
         layer.basis,
     });
   }
   return render_table(columns, rows);
+}
+
+std::string layer_tables(const std::vector<LayerResult>& layers, const OutputUnit& unit) {
+  return layer_table(layers) + "\n" + detail_table(layers, unit);
 }
 
 std::string cracked_line(const RunResults& run) {
@@ -222,18 +245,22 @@ std::string format_results_table(const RunResults& run, const OutputUnit& unit) 
   if (!(unit.length_scale > 0.0) || !std::isfinite(unit.length_scale)) {
     throw std::invalid_argument("summary: the length scale must be positive and finite");
   }
-  std::string out = run.title.empty() ? std::string() : run.title + "\n";
+  std::string out = headline(run) + "\n\n";
+  out += run.title.empty() ? std::string() : run.title + "\n";
   out += std::string("Case ") + run.case_file + ": " + run.shape + ", " + run.load;
   out += run.lateral.empty() ? std::string() : std::string(", lateral ") + run.lateral;
-  out += std::string(
-             ". Strains are nominal principal strains in %, stresses Cauchy in MPa, lengths in ") +
-         unit.name + ".\n\n";
-  out += layer_table(run.layers, unit);
+  out +=
+      std::string(
+          ". Strains are nominal principal strains in %, stresses Cauchy in MPa, lengths in ") +
+      unit.name +
+      ".\nMargins: 1 - peak / limit, negative past the limit. Crack at / yield at: the share "
+      "of the full\nload at which the peak first reached the crack-onset / the yield strain.\n\n";
+  out += layer_tables(run.layers, unit);
   for (const LocalCheck& check : run.local) {
     out += std::string("\nLocal check at defect ") + std::to_string(check.defect_index) +
            std::string(" (applied major ") + percent(check.applied_major) + " %, minor " +
            percent(check.applied_minor) + " % at " + place(check.applied_at, unit) + "):\n";
-    out += layer_table(check.layers, unit);
+    out += layer_tables(check.layers, unit);
   }
   if (run.conform) {
     out += std::string("\n") + conform_section(*run.conform, unit);

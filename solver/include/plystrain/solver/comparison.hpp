@@ -1,11 +1,17 @@
 // Side-by-side comparison of a base run and its variants (or swept values):
 // comparison.json, comparison.csv and comparison.txt of results-format.md.
 //
-// Per layer, the best run is the one with the lowest peak strain among the
-// runs that completed and have the layer; equal peaks (to 1e-9 relative) are
-// decided by the larger crack margin, and runs still equal are all marked
-// best. Figures are the governing ones of each run (global and local checks,
-// see governing_layers). A layer a run does not have is absent, not zero.
+// Per layer, the best run is the one with the widest crack margin among the
+// runs that completed and have the layer; equal crack margins (to 1e-9
+// relative) are decided by the wider yield margin, and only then by the
+// lower peak strain. A run with a margin beats one without (no limit data
+// cannot be judged better); when no run has limit data the lowest peak
+// decides. Runs still equal are all marked best. Figures are the governing
+// ones of each run (global and local checks, see governing_layers). A layer
+// a run does not have is absent, not zero.
+//
+// A sweep is compared the same way, one run per value, into sweep.csv and
+// sweep.json.
 #pragma once
 
 #include "plystrain/solver/results.hpp"
@@ -18,7 +24,7 @@
 namespace plystrain {
 
 struct NamedRun {
-  std::string name;  // "base", a variant name, or "<parameter>=<value>"
+  std::string name;  // "base", a variant name, or "sweep-<n>"
   RunResults results;
 };
 
@@ -32,6 +38,9 @@ struct ComparisonEntry {
   std::optional<double> crack_margin;
   std::optional<Verdict> verdict;
   bool best = false;
+  std::optional<double> yield_margin;
+  std::optional<double> crack_onset_load_factor;
+  std::optional<double> yield_load_factor;
 };
 
 struct RunOutline {
@@ -39,6 +48,9 @@ struct RunOutline {
   bool completed = false;
   double load_reached = 0.0;
   std::string message;
+  std::string value;  // a sweep run's value as written in the case ("0.1"); set by the caller
+  std::string headline;
+  Verdict verdict = Verdict::unknown;  // overall verdict of the run
 };
 
 struct Comparison {
@@ -54,14 +66,30 @@ struct Comparison {
 // name.
 [[nodiscard]] Comparison compare_runs(const RunResults& base,
                                       const std::vector<NamedRun>& variants);
+// The runs as given, in order (a sweep: one per value; the caller fills in
+// each RunOutline::value).
+[[nodiscard]] Comparison compare_runs(const std::vector<NamedRun>& runs);
 
 [[nodiscard]] std::string comparison_json_text(const Comparison& comparison);
-// Header: variant,layer,peak_strain,concentration,crack_margin,verdict,best,completed.
-// An absent layer has empty numbers and the verdict "absent".
+// Header: variant,layer,peak_strain,concentration,crack_margin,verdict,best,completed,
+// yield_margin,crack_onset_load_factor,yield_load_factor (the last three
+// added after the original columns, so that readers by position keep
+// working). An absent layer has empty numbers and the verdict "absent".
 [[nodiscard]] std::string comparison_csv_text(const Comparison& comparison);
 [[nodiscard]] std::string comparison_text(const Comparison& comparison);
 
 // Writes comparison.json, comparison.csv and comparison.txt into `directory`.
 void write_comparison_files(const std::filesystem::path& directory, const Comparison& comparison);
+
+// The combined table of a sweep over `parameter`: per value and layer the
+// peak, concentration, both margins, verdict and first-crack and
+// first-yield load factors. sweep.csv header: run,parameter,value,layer,
+// peak_strain,concentration,crack_margin,yield_margin,verdict,
+// crack_onset_load_factor,yield_load_factor,best,completed.
+[[nodiscard]] std::string sweep_csv_text(const Comparison& sweep, const std::string& parameter);
+[[nodiscard]] std::string sweep_json_text(const Comparison& sweep, const std::string& parameter);
+// Writes sweep.json, sweep.csv and sweep.txt (comparison_text) into `directory`.
+void write_sweep_files(const std::filesystem::path& directory, const Comparison& sweep,
+                       const std::string& parameter);
 
 }  // namespace plystrain

@@ -17,6 +17,11 @@ enum class Verdict { intact, yields, cracks, unknown };
 
 [[nodiscard]] const char* verdict_name(Verdict verdict);  // "intact", "yields", ...
 
+// The verdict as the human-readable outputs say it: "CRACKS" (the one a
+// reader must not overlook), "yields", "intact", and "no limit data" for
+// `unknown` (the JSON keeps the enumeration name "unknown").
+[[nodiscard]] const char* verdict_text(Verdict verdict);
+
 // The verdict of results-format.md: cracks at or above crack onset, yields
 // above the yield strain, unknown when the material has neither limit.
 [[nodiscard]] Verdict judge(double peak_strain, const std::optional<double>& crack_onset_strain,
@@ -45,6 +50,13 @@ struct LayerResult {
   std::optional<double> crack_onset_strain;
   std::optional<double> yield_strain;
   std::optional<double> crack_margin;  // 1 - peak / crack onset
+  std::optional<double> yield_margin;  // 1 - peak / yield strain
+  // Load factor at which the peak first reaches the crack-onset strain
+  // (first exceeds the yield strain), interpolated linearly between the
+  // converged increments around it; null when not reached within the load
+  // reached. Governing value over several solves: the smallest.
+  std::optional<double> crack_onset_load_factor;
+  std::optional<double> yield_load_factor;
   Verdict verdict = Verdict::unknown;
 };
 
@@ -161,6 +173,17 @@ struct RunResults {
 // and the worst verdict. This is the "overall verdict of a layer" of
 // results-format.md.
 [[nodiscard]] std::vector<LayerResult> governing_layers(const RunResults& run);
+
+// The worst verdict over every governing layer (unknown only when no layer
+// has limit data, or there are no layers).
+[[nodiscard]] Verdict overall_verdict(const RunResults& run);
+
+// One line a reader takes in at a glance, from the governing layers: how
+// many layers crack and yield and which, the layers without limit data, and
+// the load reached, e.g. "2 of 4 layers crack: electrode, sensing; load
+// reached 100 %". A run that stopped early says at which load and that the
+// verdicts are for that state.
+[[nodiscard]] std::string headline(const RunResults& run);
 
 // One sample of profiles.csv: strain along a layer's mid-line.
 struct ProfileSample {

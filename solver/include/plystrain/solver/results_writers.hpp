@@ -37,12 +37,14 @@ struct OutputUnit {
 void write_results_json(const std::filesystem::path& path, const RunResults& run,
                         const OutputUnit& unit);
 
-// The per-layer table shown on the terminal and written to summary.txt:
-// peak strain (%), where, far field, concentration, min strain, peak stress,
-// crack onset, margin, verdict and basis; a line naming every layer expected
-// to crack (the governing verdict over global and local checks); a line
-// saying the run completed, or why it stopped and the load reached; then
-// the cautions. Plain text, no terminal escape codes.
+// What the terminal shows and summary.txt holds: the headline first; per
+// result a verdict table (peak strain %, concentration, min strain, crack
+// and yield margins, the share of the load at first crack and first yield,
+// verdict) and a detail table (where, far field, peak stress, crack onset
+// and yield strains, basis); a line naming every layer expected to crack
+// (the governing verdict over global and local checks); a line saying the
+// run completed, or why it stopped and the load reached; then the cautions.
+// Plain text, no terminal escape codes.
 [[nodiscard]] std::string format_results_table(const RunResults& run, const OutputUnit& unit);
 void write_summary_text(const std::filesystem::path& path, const RunResults& run,
                         const OutputUnit& unit);
