@@ -140,11 +140,6 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
     // another few iterations at the same load: an increment that needed
     // eight is still an easy one.
     options.easy_iterations = 8;
-    // Frictionless press: the touching set follows the iterate, so the
-    // tangent jumps where the front crosses a node; the energy is the merit.
-    if (spec.load.method.value == ConformMethod::press && spec.load.contact.value == ContactKind::frictionless) {
-      options.newton.energy_line_search = true;
-    }
   }
   // A residual below 1e-11 of the force that would strain the whole section
   // by 100 % in its stiffest material is rounding: it ends Newton even where

@@ -348,7 +348,6 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       entry.area = share.area;
       entry.spacing = std::max(edge_length[node], 1e-300);
       entry.stiffness = contact.penalty_factor * share.modulus / entry.spacing * share.area;
-      entry.rounding = contact.rounding * entry.spacing;
       surface_nodes.push_back(entry);
     }
   }
@@ -603,16 +602,19 @@ bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
   for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
     const SurfaceContactNode& node = impl.surface_nodes[k];
     const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
-    if (contact.kind != SurfaceContactKind::bonded) {
-      continue;  // held on for good, or frictionless: its set follows the iterate
+    if (contact.kind == SurfaceContactKind::held_on) {
+      continue;
     }
     SurfaceNodeState& state = impl.surface_states[k];
-    if (state.closed) {
+    if (contact.kind == SurfaceContactKind::bonded && state.closed) {
       continue;  // stuck for good
     }
     const Eigen::Vector2d x = impl.current_position(node.node, z);
     const SurfacePoint nearest = nearest_surface_point(contact, placement_at(contact, load_factor), x);
-    if (nearest.gap < -tolerance) {
+    if (state.closed && nearest.gap > tolerance) {
+      state.closed = false;  // lifted off: the surface would pull
+      changed = true;
+    } else if (!state.closed && nearest.gap < -tolerance) {
       state.closed = true;
       // Where it touched: the surface point under the node now, which lies
       // within the increment's own travel of the first touch.

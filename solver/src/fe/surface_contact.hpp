@@ -15,21 +15,7 @@ struct SurfaceContactNode {
   double stiffness = 0.0;  // k w: force per unit penetration
   double area = 0.0;       // w: the node's share of the face
   double spacing = 0.0;    // length of the longest face edge it lies on
-  double rounding = 0.0;   // w: frictionless only, the penetration over which the energy is rounded
 };
-
-// Slope phi'(g) and curvature phi''(g) of the frictionless contact energy of
-// a node at gap g: phi = k/2 (g + w/2)^2 + k w^2/24 deep inside (g <= -w), a
-// cubic -k g^3 / (6 w) over -w < g < 0 and nothing outside. Slope and
-// curvature are continuous (at g = -w: -k w/2 and k; at 0: 0 and 0), so
-// Newton converges quadratically also while nodes cross the surface; the
-// price is an extra sinking of at most w/2 under load.
-struct ContactEnergySlope {
-  double slope = 0.0;
-  double curvature = 0.0;
-};
-[[nodiscard]] ContactEnergySlope contact_energy_slope(double gap, double stiffness,
-                                                      double rounding);
 
 // Where the surface is at a load factor.
 struct SurfacePlacement {
@@ -40,8 +26,7 @@ struct SurfacePlacement {
 [[nodiscard]] SurfacePlacement placement_at(const SurfaceContact& contact, double load_factor);
 
 // The nearest surface point to the current position x of a node.
-[[nodiscard]] SurfacePoint nearest_surface_point(const SurfaceContact& contact,
-                                                 const SurfacePlacement& at,
+[[nodiscard]] SurfacePoint nearest_surface_point(const SurfaceContact& contact, const SurfacePlacement& at,
                                                  const Eigen::Vector2d& x);
 
 // The state of one node within a Newton solve: closed or not, and for a
@@ -53,9 +38,8 @@ struct SurfaceNodeState {
 
 // Force (2) and tangent (2 x 2) on a node at current position x. Returns
 // false (and zeros) when the node carries nothing.
-bool surface_node_forces(const SurfaceContact& contact, const SurfaceContactNode& node,
-                         const SurfaceNodeState& state, const SurfacePlacement& at,
-                         const Eigen::Vector2d& x, Eigen::Vector2d& force,
+bool surface_node_forces(const SurfaceContact& contact, const SurfaceContactNode& node, const SurfaceNodeState& state,
+                         const SurfacePlacement& at, const Eigen::Vector2d& x, Eigen::Vector2d& force,
                          Eigen::Matrix2d& stiffness);
 
 }  // namespace plystrain::solver

@@ -32,31 +32,21 @@ double residual_norm_or_infinity(const Evaluation& evaluation, const Eigen::Vect
 
 const char* status_name(NewtonStatus status) {
   switch (status) {
-    case NewtonStatus::converged:
-      return "converged";
-    case NewtonStatus::evaluation_failed:
-      return "evaluation failed";
-    case NewtonStatus::factorization_failed:
-      return "factorization failed";
-    case NewtonStatus::solve_failed:
-      return "linear solve failed";
-    case NewtonStatus::non_finite:
-      return "non-finite residual or step";
-    case NewtonStatus::iteration_limit:
-      return "iteration limit reached";
-    case NewtonStatus::stagnated:
-      return "no progress";
-    case NewtonStatus::diverged:
-      return "diverged";
-    case NewtonStatus::singular_path_equation:
-      return "singular path equation";
+    case NewtonStatus::converged: return "converged";
+    case NewtonStatus::evaluation_failed: return "evaluation failed";
+    case NewtonStatus::factorization_failed: return "factorization failed";
+    case NewtonStatus::solve_failed: return "linear solve failed";
+    case NewtonStatus::non_finite: return "non-finite residual or step";
+    case NewtonStatus::iteration_limit: return "iteration limit reached";
+    case NewtonStatus::stagnated: return "no progress";
+    case NewtonStatus::diverged: return "diverged";
+    case NewtonStatus::singular_path_equation: return "singular path equation";
   }
   return "unknown";
 }
 
-NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
-                          const Eigen::VectorXd& q_start, double load_factor,
-                          const NewtonOptions& options, const PathEquation* path,
+NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, const Eigen::VectorXd& q_start,
+                          double load_factor, const NewtonOptions& options, const PathEquation* path,
                           double reference_residual, const NewtonIterationCallback& on_iteration) {
   NewtonResult result;
   result.q = q_start;
@@ -83,16 +73,15 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
   Evaluation evaluation = system.evaluate(result.q, result.load_factor, residual, &tangent);
   record.assemble_seconds = seconds_since(start);
   if (!evaluation.ok()) {
-    return fail(NewtonStatus::evaluation_failed, std::string(status_name(evaluation.status)) +
-                                                     " at the start point: " + evaluation.detail);
+    return fail(NewtonStatus::evaluation_failed,
+                std::string(status_name(evaluation.status)) + " at the start point: " + evaluation.detail);
   }
   double residual_norm = residual.norm();
   if (!std::isfinite(residual_norm)) {
     return fail(NewtonStatus::non_finite, "non-finite residual at the start point");
   }
   double residual_reference = std::max(residual_norm, reference_residual);
-  double residual_limit =
-      std::max(options.residual_tolerance * residual_reference, options.residual_floor);
+  double residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
   double increment_reference = 0.0;
   // From a good predictor the first correction is already tiny, and a test
   // relative to it alone would ask for corrections below the rounding of q.
@@ -101,8 +90,7 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
   double previous_residual_norm = residual_norm;
 
   std::vector<double> history;  // residual norm at the start of each iteration
-  std::size_t equations_since =
-      0;  // index in history of the first iteration on the current equations
+  std::size_t equations_since = 0;  // index in history of the first iteration on the current equations
   for (int iteration = 0;; ++iteration) {
     history.push_back(residual_norm);
     record.iteration = iteration;
@@ -111,11 +99,10 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
     result.residual_norm = residual_norm;
 
     const bool path_satisfied =
-        path == nullptr || std::abs(path->residual(result.q, result.load_factor)) <=
-                               1e-10 * (std::abs(path->q_coefficients.dot(result.q)) +
-                                        std::abs(path->load_coefficient * result.load_factor) +
-                                        std::abs(path->value)) +
-                                   1e-14;
+        path == nullptr ||
+        std::abs(path->residual(result.q, result.load_factor)) <=
+            1e-10 * (std::abs(path->q_coefficients.dot(result.q)) + std::abs(path->load_coefficient * result.load_factor) +
+                     std::abs(path->value)) + 1e-14;
     // The next correction is estimated from the last one and the residual
     // contraction, so that a step that already solved the equations (a
     // linear problem) is recognised without one more solve.
@@ -123,15 +110,14 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
         last_increment * std::min(1.0, residual_norm / std::max(previous_residual_norm, 1e-300));
     const bool increment_small =
         iteration > 0 &&
-        predicted_increment <= std::max({options.increment_tolerance * increment_reference,
-                                         options.increment_floor, increment_rounding});
+        predicted_increment <= std::max({options.increment_tolerance * increment_reference, options.increment_floor,
+                                         increment_rounding});
     // Stalled: no longer contracting (rounding), tiny predicted correction.
     const bool stalled = increment_small && residual_norm > residual_limit &&
                          residual_norm >= 0.5 * previous_residual_norm &&
                          residual_norm <= options.stalled_residual_tolerance * residual_reference;
-    const bool converged =
-        path_satisfied && ((residual_norm <= residual_limit && increment_small) || stalled ||
-                           residual_norm <= options.residual_floor);
+    const bool converged = path_satisfied && ((residual_norm <= residual_limit && increment_small) || stalled ||
+                                              residual_norm <= options.residual_floor);
     result.stalled_at_rounding = converged && stalled;
     if (converged) {
       if (system.update_active_set(result.q, result.load_factor)) {
@@ -143,8 +129,7 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
         if (!evaluation.ok()) {
           result.iterations.push_back(record);
           return fail(NewtonStatus::evaluation_failed,
-                      std::string(status_name(evaluation.status)) +
-                          " after an active-set update: " + evaluation.detail);
+                      std::string(status_name(evaluation.status)) + " after an active-set update: " + evaluation.detail);
         }
         residual_norm = residual.norm();
         last_increment = infinity;
@@ -154,8 +139,7 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
         // that closes from a force-free state starts from nothing), and the
         // progress rule starts over.
         residual_reference = std::max(residual_reference, residual_norm);
-        residual_limit =
-            std::max(options.residual_tolerance * residual_reference, options.residual_floor);
+        residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
         history.back() = residual_norm;
         equations_since = history.size() - 1;
       } else {
@@ -169,9 +153,8 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
     }
     if (iteration >= options.max_iterations) {
       result.iterations.push_back(record);
-      return fail(NewtonStatus::iteration_limit,
-                  "no convergence in " + std::to_string(options.max_iterations) +
-                      " iterations (residual " + std::to_string(residual_norm) + ")");
+      return fail(NewtonStatus::iteration_limit, "no convergence in " + std::to_string(options.max_iterations) +
+                                                     " iterations (residual " + std::to_string(residual_norm) + ")");
     }
     // Not near rounding level, where halving is not to be expected.
     // The window counts only iterations on the current equations.
@@ -183,13 +166,13 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
       result.iterations.push_back(record);
       return fail(NewtonStatus::stagnated,
                   "the residual fell only from " + std::to_string(history[current - window]) +
-                      " to " + std::to_string(residual_norm) + " in " +
-                      std::to_string(options.progress_window) + " iterations");
+                      " to " + std::to_string(residual_norm) + " in " + std::to_string(options.progress_window) +
+                      " iterations");
     }
     if (residual_norm > options.divergence_factor * residual_reference) {
       result.iterations.push_back(record);
-      return fail(NewtonStatus::diverged, "residual grew to " + std::to_string(residual_norm) +
-                                              " from " + std::to_string(residual_reference));
+      return fail(NewtonStatus::diverged, "residual grew to " + std::to_string(residual_norm) + " from " +
+                                              std::to_string(residual_reference));
     }
 
     // Linearised step.
@@ -218,9 +201,8 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
       record.assemble_seconds += seconds_since(start);
       if (!evaluation.ok()) {
         result.iterations.push_back(record);
-        return fail(NewtonStatus::evaluation_failed, std::string("load derivative: ") +
-                                                         status_name(evaluation.status) + ": " +
-                                                         evaluation.detail);
+        return fail(NewtonStatus::evaluation_failed,
+                    std::string("load derivative: ") + status_name(evaluation.status) + ": " + evaluation.detail);
       }
       solved = linear_solver.solve(-load_column, path_step);
       record.solve_seconds += solved.seconds;
@@ -232,14 +214,12 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
       //   [K  R_l] [dq]    [R]
       //   [c' l  ] [dl] = -[g],   dq = a + dl b,  a = -K^-1 R,  b = -K^-1 R_l.
       const double denominator = path->q_coefficients.dot(path_step) + path->load_coefficient;
-      const double numerator =
-          -(path->residual(result.q, result.load_factor) + path->q_coefficients.dot(load_step));
+      const double numerator = -(path->residual(result.q, result.load_factor) + path->q_coefficients.dot(load_step));
       load_change = numerator / denominator;
       if (!std::isfinite(load_change) || denominator == 0.0) {
         result.iterations.push_back(record);
         return fail(NewtonStatus::singular_path_equation,
-                    "the path equation is tangent to the solution path (denominator " +
-                        std::to_string(denominator) + ")");
+                    "the path equation is tangent to the solution path (denominator " + std::to_string(denominator) + ")");
       }
       step.noalias() = load_step + load_change * path_step;
     } else {
@@ -262,67 +242,7 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
     double trial_norm = residual_norm_or_infinity(trial_evaluation, trial_residual);
     bool tangent_current = trial_evaluation.ok();
 
-    bool searched_on_energy = false;
-    if (options.line_search && options.energy_line_search && path == nullptr &&
-        trial_evaluation.ok()) {
-      const double slope_start = step.dot(residual);
-      double slope = step.dot(trial_residual);
-      if (slope_start < 0.0 && std::isfinite(slope)) {
-        searched_on_energy = true;
-        const double enough = 0.5 * std::abs(slope_start);
-        double lo = 0.0, slope_lo = slope_start, hi = 1.0, slope_hi = slope;
-        int side = 0;
-        int trials = 0;
-        while (slope > enough && trials < options.max_line_search_steps) {
-          // The energy rises again before a = 1: its minimum along dq is
-          // inside [lo, hi], where s changes sign.
-          double next = (lo * slope_hi - hi * slope_lo) / (slope_hi - slope_lo);
-          const double margin = 0.01 * (hi - lo);
-          next = std::clamp(next, lo + margin, hi - margin);
-          trial_q.noalias() = result.q + next * step;
-          start = Clock::now();
-          trial_evaluation = system.evaluate(trial_q, result.load_factor, trial_residual, nullptr);
-          record.assemble_seconds += seconds_since(start);
-          ++trials;
-          factor = next;
-          slope = trial_evaluation.ok() ? step.dot(trial_residual) : infinity;
-          if (!std::isfinite(slope)) {
-            slope = infinity;
-            hi = next;
-            slope_hi = std::abs(slope_start);  // cannot go there: treat as past the minimum
-            side = 1;
-            continue;
-          }
-          if (std::abs(slope) <= enough) {
-            break;
-          }
-          if (slope < 0.0) {
-            lo = next;
-            slope_lo = slope;
-            if (side == -1)
-              slope_hi *= 0.5;
-            side = -1;
-          } else {
-            hi = next;
-            slope_hi = slope;
-            if (side == 1)
-              slope_lo *= 0.5;
-            side = 1;
-          }
-        }
-        record.line_search_evaluations = trials;
-        if (trials > 0) {
-          tangent_current = false;
-          if (!trial_evaluation.ok() || !std::isfinite(slope)) {
-            // No point of the search could be evaluated past lo.
-            factor = lo > 0.0 ? lo : 0.5 * hi;
-            trial_q.noalias() = result.q + factor * step;
-            record.line_search_failed = true;
-          }
-        }
-      }
-    }
-    if (options.line_search && !searched_on_energy) {
+    if (options.line_search) {
       double accepted_factor = -1.0;  // the smallest factor whose evaluation succeeded
       int trials = 0;
       while (true) {
@@ -364,19 +284,18 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
           record.line_search_factor = factor;
           result.iterations.push_back(record);
           return fail(NewtonStatus::evaluation_failed,
-                      std::string(status_name(trial_evaluation.status)) +
-                          " at every line-search point: " + trial_evaluation.detail);
+                      std::string(status_name(trial_evaluation.status)) + " at every line-search point: " +
+                          trial_evaluation.detail);
         }
         factor = accepted_factor;
         trial_q.noalias() = result.q + factor * step;
         trial_load = result.load_factor + factor * load_change;
         tangent_current = false;
       }
-    } else if (!searched_on_energy && !trial_evaluation.ok()) {
+    } else if (!trial_evaluation.ok()) {
       result.iterations.push_back(record);
-      return fail(
-          NewtonStatus::evaluation_failed,
-          std::string(status_name(trial_evaluation.status)) + ": " + trial_evaluation.detail);
+      return fail(NewtonStatus::evaluation_failed,
+                  std::string(status_name(trial_evaluation.status)) + ": " + trial_evaluation.detail);
     }
 
     if (!tangent_current) {
@@ -404,8 +323,7 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver,
     previous_residual_norm = residual_norm;
     residual_norm = residual.norm();
     if (!std::isfinite(residual_norm)) {
-      return fail(NewtonStatus::non_finite,
-                  "non-finite residual after iteration " + std::to_string(iteration));
+      return fail(NewtonStatus::non_finite, "non-finite residual after iteration " + std::to_string(iteration));
     }
     last_increment = factor * step_norm;
     if (iteration == 0) {

@@ -155,14 +155,6 @@ struct FaceContact {
 // consistent tangent follow the curved surface exactly). The stiffness per
 // node is k w with k = penalty_factor E / h, h the length of the face's
 // edges at the node: a contact pressure p sinks the face by p h / (penalty_factor E).
-//
-// Frictionless contact decides which nodes touch at every evaluation, from
-// the iterate itself (a node inside the surface carries force, one outside
-// does not), with the penalty energy rounded over a penetration of
-// w = rounding * h so that force and tangent are continuous: the contact
-// front moves within a Newton solve. Bonded contact keeps the set fixed
-// through a solve and adds the nodes that went through once it has
-// converged (where a node sticks depends on when it touched).
 enum class SurfaceContactKind { held_on, frictionless, bonded };
 
 struct SurfaceContact {
@@ -172,10 +164,6 @@ struct SurfaceContact {
   ScaledValue lift;
   SurfaceContactKind kind = SurfaceContactKind::frictionless;
   double penalty_factor = 1e3;
-  // Frictionless only: w / h. A uniform pressure p sinks the face by
-  // p h / (penalty_factor E) plus at most w / 2; 1e-3 h is far below the
-  // 1 % of h that reports treat as the tolerance.
-  double rounding = 0.0;
 };
 
 // Generalized plane strain only: with no prescribed strain, e3 is a free
@@ -260,12 +248,10 @@ class Model final : public NonlinearSystem {
   Evaluation evaluate(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& residual,
                       SparseMatrix* tangent) override;
 
-  // Contact: the set of closed pairs (face contact) and of stuck nodes
-  // (bonded surface contact) is held fixed through a Newton solve (so the
-  // equations are smooth) and updated once it has converged: a closed pair
-  // pulled apart opens, an open pair or node pushed through closes, and
-  // Newton iterates again at the same load. Frictionless surface contact
-  // needs no update: its set follows the iterate (see SurfaceContact).
+  // Contact: the set of closed pairs is held fixed through a Newton solve
+  // (so the equations are smooth) and updated once it has converged: a
+  // closed pair pulled apart opens, an open pair pushed through closes, and
+  // Newton iterates again at the same load.
   bool update_active_set(const Eigen::VectorXd& q, double load_factor) override;
   void accept_increment(const Eigen::VectorXd& q, double load_factor) override;
   void begin_attempt() override;

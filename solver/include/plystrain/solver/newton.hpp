@@ -69,19 +69,6 @@ struct NewtonOptions {
   int max_line_search_steps = 8;
   double sufficient_decrease = 1e-4;
 
-  // For a system with a potential (R = dPi/dq) whose tangent jumps, as
-  // where the contact front crosses nodes: |R| is then a poor merit (a step
-  // that lands a node just past the surface raises |R| although it lowers
-  // Pi), and backtracking on it stalls at tiny factors. Instead the factor a
-  // is chosen along the Newton direction so that the energy's slope
-  // s(a) = dq . R(q + a dq) has fallen to at most half of |s(0)| (a line
-  // search on the energy, e.g. Matthies & Strang, Int. J. Numer. Meth. Eng.
-  // 14, 1979, 1613), by regula falsi (Illinois) on [0, 1]; the full step is
-  // kept when the energy still falls at a = 1. Used only without a path
-  // equation and when dq is a descent direction (s(0) < 0); otherwise the
-  // backtracking on |R| above.
-  bool energy_line_search = false;
-
   // Tangent symmetry: symmetric goes to Cholesky (with fallbacks), otherwise LU.
   MatrixSymmetry symmetry = MatrixSymmetry::symmetric;
 };
