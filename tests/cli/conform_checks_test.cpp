@@ -43,9 +43,11 @@ std::vector<ProfileRow> read_profiles(const std::filesystem::path& file) {
   return rows;
 }
 
-std::filesystem::path run_to(const std::string& command, const std::string& case_file, const std::string& name) {
+std::filesystem::path run_to(const std::string& command, const std::string& case_file,
+                             const std::string& name) {
   const std::filesystem::path out = plystrain::test::fresh_output_dir(name);
-  const auto result = run_plystrain(command + " '" + data_path("cli/" + case_file) + "' --out '" + out.string() + "'");
+  const auto result = run_plystrain(command + " '" + data_path("cli/" + case_file) + "' --out '" +
+                                    out.string() + "'");
   INFO(result.out << "\n" << result.err);
   REQUIRE(result.exit_code == 0);
   return out;
@@ -56,7 +58,8 @@ nlohmann::json results_of(const std::filesystem::path& out) {
 }
 
 // Nearest profile sample of a layer to radius r.
-const ProfileRow& at_radius(const std::vector<ProfileRow>& rows, const std::string& layer, double r) {
+const ProfileRow& at_radius(const std::vector<ProfileRow>& rows, const std::string& layer,
+                            double r) {
   const ProfileRow* best = nullptr;
   for (const ProfileRow& row : rows) {
     if (row.layer == layer && (best == nullptr || std::abs(row.x - r) < std::abs(best->x - r))) {
@@ -69,7 +72,8 @@ const ProfileRow& at_radius(const std::vector<ProfileRow>& rows, const std::stri
 
 }  // namespace
 
-TEST_CASE("wrap: a thin disk on a sphere follows the Foppl-von Karman membrane state", "[cli][conform][verification]") {
+TEST_CASE("wrap: a thin disk on a sphere follows the Foppl-von Karman membrane state",
+          "[cli][conform][verification]") {
   // Flat disk of radius a laid onto a sphere of radius R, free edge,
   // frictionless (verification.md section 4; Foppl-von Karman compatibility,
   // cf. Hure, Roman & Bico, Phys. Rev. Lett. 106, 174301, 2011):
@@ -83,8 +87,10 @@ TEST_CASE("wrap: a thin disk on a sphere follows the Foppl-von Karman membrane s
   const double nu = 0.3;
   double centre_core[2] = {0.0, 0.0};
   int index = 0;
-  for (const auto& [file, a] : {std::pair{"wrap-fvk-small.toml", 250.0}, std::pair{"wrap-fvk.toml", 500.0}}) {
-    const std::filesystem::path out = run_to("run", file, std::string("wrap-fvk-") + std::to_string(index));
+  for (const auto& [file, a] :
+       {std::pair{"wrap-fvk-small.toml", 250.0}, std::pair{"wrap-fvk.toml", 500.0}}) {
+    const std::filesystem::path out =
+        run_to("run", file, std::string("wrap-fvk-") + std::to_string(index));
     const std::vector<ProfileRow> rows = read_profiles(out / "profiles.csv");
     const nlohmann::json results = results_of(out);
     CHECK(results["conform"]["method"] == "wrap");
@@ -115,8 +121,10 @@ TEST_CASE("wrap: a thin disk on a sphere follows the Foppl-von Karman membrane s
   CHECK(centre_core[1] / centre_core[0] == Approx(4.0).epsilon(0.03));
 }
 
-TEST_CASE("press: a thin sheet follows the membrane solution, and bonded contact holds the strain where it touched",
-          "[cli][conform][verification]") {
+TEST_CASE(
+    "press: a thin sheet follows the membrane solution, and bonded contact holds the strain where "
+    "it touched",
+    "[cli][conform][verification]") {
   // Frictionless: a 5 um sheet of nearly incompressible neo-Hookean rubber
   // (nu = 0.4999) clamped on a ring of radius a = 1 mm, a sphere of R = 1 mm
   // pushed d = 0.4 mm through it. The reference is the axisymmetric
@@ -154,7 +162,8 @@ TEST_CASE("press: a thin sheet follows the membrane solution, and bonded contact
     INFO("reference radius " << sample.reference_radius << " um, profile at " << row.x << " um");
     const double meridional = sample.meridional_stretch - 1.0;
     const double hoop = sample.hoop_stretch - 1.0;
-    CHECK(std::abs(row.along - meridional) <= 0.03 * std::max(std::abs(meridional), 0.2 * apex_reference));
+    CHECK(std::abs(row.along - meridional) <=
+          0.03 * std::max(std::abs(meridional), 0.2 * apex_reference));
     CHECK(std::abs(row.third - hoop) <= 0.03 * std::max(std::abs(hoop), 0.2 * apex_reference));
   }
   // The apex itself is the loop's first sample (reference radius 0).
@@ -163,7 +172,8 @@ TEST_CASE("press: a thin sheet follows the membrane solution, and bonded contact
   CHECK(apex_bonded < 0.8 * apex_frictionless);
   const nlohmann::json base = results_of(out / "base");
   const nlohmann::json stuck = results_of(out / "bonded");
-  CHECK(stuck["layers"][0]["peak_strain"].get<double>() > base["layers"][0]["peak_strain"].get<double>());
+  CHECK(stuck["layers"][0]["peak_strain"].get<double>() >
+        base["layers"][0]["peak_strain"].get<double>());
   for (const nlohmann::json* run : {&base, &stuck}) {
     CHECK((*run)["completed"] == true);
     CHECK((*run)["conform"]["method"] == "press");
@@ -177,8 +187,9 @@ TEST_CASE("press: a thin sheet follows the membrane solution, and bonded contact
   std::filesystem::remove_all(out);
 }
 
-TEST_CASE("local check: the defect's cell is the stretch analysis of that defect under the found state",
-          "[cli][conform]") {
+TEST_CASE(
+    "local check: the defect's cell is the stretch analysis of that defect under the found state",
+    "[cli][conform]") {
   // A conform run with a pinhole reports, for the defect, the in-plane
   // state it took and the cell's per-layer results; the cell's own case (in
   // local-1/) rerun as a plain stretch analysis gives the same peaks.
@@ -191,7 +202,8 @@ TEST_CASE("local check: the defect's cell is the stretch analysis of that defect
   const std::string cell_text = plystrain::test::read_text(out / "local-1" / "case.toml");
   CHECK(cell_text.find("kind = \"stretch\"") != std::string::npos);
   const std::filesystem::path rerun = plystrain::test::fresh_output_dir("wrap-pinhole-cell");
-  const auto again = run_plystrain("run '" + (out / "local-1" / "case.toml").string() + "' --out '" + rerun.string() + "'");
+  const auto again = run_plystrain("run '" + (out / "local-1" / "case.toml").string() +
+                                   "' --out '" + rerun.string() + "'");
   INFO(again.out << "\n" << again.err);
   REQUIRE(again.exit_code == 0);
   const nlohmann::json cell = results_of(rerun);

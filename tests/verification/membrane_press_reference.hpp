@@ -28,20 +28,30 @@
 // the integration at rho0 = 1e-3 rho_c, leaving an error of order
 // (rho0 / R)^4.
 //
-// Shooting: for a trial contact edge rho_c, the apex stretch l0 is found by
-// bracketing so that r(a) = a; the free span's drop then fixes the travel
-// d(rho_c) = R (1 - cos psi_c) + (z(rho_c) - z(a)). A second bracketing on
-// rho_c matches the requested d. Both unknowns are thus found by bracketed
-// root finding, which cannot wander off to a non-physical branch.
+// Shooting: for a trial apex stretch l0, the contact edge rho_c is found by
+// bracketing so that r(a) = a (more contact turns the meridian further and
+// pulls the rim in, so r(a) - a falls with rho_c); the free span's drop then
+// fixes the travel d(l0) = R (1 - cos psi_c) + (z(rho_c) - z(a)), which
+// grows with l0, and a second bracketing on l0 matches the requested d. Both
+// unknowns are thus found by bracketed root finding, which cannot wander off
+// to a non-physical branch. (Bracketing on rho_c outside and l0 inside, the
+// other order, fails at depth: for a sphere slightly narrower than the ring
+// pushed to its full radius, r(a) - a is not monotone in l0 at fixed rho_c,
+// and d(rho_c) folds back.)
 //
-// Range of validity (inputs outside are refused): 0 < d <= 0.75 min(a, R),
-// and for R > a also d < R - sqrt(R^2 - a^2), beyond which the rim circle
-// would lie inside the sphere (the sheet would be wrapped over the sphere
-// all the way to the clamp). Close to that limit the free span shrinks to
-// nothing and the shooting may give up (std::runtime_error). The contact edge
-// must stay on the upper hemisphere (psi_c < pi/2) and both tensions positive
-// (no wrinkling); both are checked during the shooting. For a = R, d = 0.75 a
-// the contact edge sits at psi_c of about 1.1 rad, short of the equator.
+// Full contact: when the rim circle lies on the sphere (R >= a and
+// d = R - sqrt(R^2 - a^2); for R = a that is d = R, the sheet laid over the
+// whole hemisphere down to the equator, where it meets the clamp) there is
+// no free span, and l0 alone is found so that the meridian reaches the rim
+// at the sphere's angle there, psi(a) = asin(a / R) (pi / 2 for R = a).
+//
+// Range of validity (inputs outside are refused): 0 < d <= R, and for
+// R >= a also d <= R - sqrt(R^2 - a^2), beyond which the rim circle would
+// lie inside the sphere (equality is the full contact above). For R < a the
+// sphere may rise to its equator (d = R): the sheet then leaves it on the
+// upper hemisphere and spans the gap to the ring freely. The contact edge
+// must stay on the upper hemisphere (psi_c < pi/2) and both tensions
+// positive (no wrinkling); both are checked during the shooting.
 #pragma once
 
 #include <algorithm>
@@ -113,19 +123,24 @@ inline void project(State& s, double rho, const Geometry& g) {
   s.z = g.travel - g.sphere_radius * (1.0 - std::cos(s.psi));
 }
 
-enum class Outcome { taut, slack, broken };
+// slack: a tension vanished (the sheet would wrinkle); overturned: the
+// meridian turned past the vertical.
+enum class Outcome { taut, slack, overturned, broken };
 
-// A trial apex stretch that is too small lets a tension vanish (the sheet
-// would wrinkle) or turns the meridian past the vertical; the bracketing
-// treats that as "stretch more".
+// A trial apex stretch that is too small lets a tension vanish; too much
+// contact for the stretch turns the meridian past the vertical.
 inline Outcome classify(const State& s) {
   if (!std::isfinite(s.l1) || !std::isfinite(s.l2) || !std::isfinite(s.psi) || !(s.l1 > 0.0) ||
       !(s.l2 > 0.0)) {
     return Outcome::broken;
   }
   const Derivatives w = neo_hookean(s.l1, s.l2);
-  if (!(w.w1 > 0.0) || !(w.w2 > 0.0) || !(s.psi < 0.5 * std::numbers::pi)) {
+  if (!(w.w1 > 0.0) || !(w.w2 > 0.0)) {
     return Outcome::slack;
+  }
+  // The rim of a full contact over a hemisphere ends exactly at the vertical.
+  if (!(s.psi <= 0.5 * std::numbers::pi * (1.0 + 1e-9))) {
+    return Outcome::overturned;
   }
   return Outcome::taut;
 }
@@ -190,8 +205,9 @@ struct Shot {
   double edge_angle = 0.0;   // psi at rho_c
 };
 
-// Integrates from the centre to the rim; when `samples` is given it is filled
-// at rho_i = a i / (n - 1) with z measured from the apex at d.
+// Integrates from the centre to the rim (on the sphere all the way when
+// contact_edge >= a); when `samples` is given it is filled at
+// rho_i = a i / (n - 1) with z measured from the apex at d.
 inline Shot shoot(double apex_stretch, double contact_edge, const Geometry& g,
                   double steps_per_unit_log, std::vector<MembranePressSample>* samples,
                   int sample_count) {
@@ -234,11 +250,12 @@ inline Shot shoot(double apex_stretch, double contact_edge, const Geometry& g,
       samples->push_back({stop, stop * s.l2, s.z, s.l1, s.l2, on_sphere});
     }
   }
-  if (on_sphere) {
-    shot.outcome = Outcome::broken;  // the contact edge must lie inside the sheet
-    return shot;
-  }
   shot.outcome = Outcome::taut;
+  if (on_sphere) {
+    // Full contact (contact_edge >= a): the sheet ends on the sphere.
+    shot.edge_angle = s.psi;
+    z_at_edge = s.z;
+  }
   shot.hoop_at_rim = s.l2;
   shot.drop = z_at_edge - s.z;
   return shot;
@@ -282,125 +299,139 @@ inline double bracketed_root(const std::function<double(double)>& f, double lo, 
 
 }  // namespace membrane_press_detail
 
+
 // steps_per_unit_log: Runge-Kutta steps per unit of ln(rho); the default
 // leaves a discretisation error far below 1e-9 in the stretches.
 inline MembranePressSolution solve_membrane_press(double sheet_radius, double sphere_radius,
                                                   double travel, int samples = 201,
                                                   double steps_per_unit_log = 400.0) {
   namespace detail = membrane_press_detail;
-  if (!(sheet_radius > 0.0) || !(sphere_radius > 0.0) || !(travel > 0.0) ||
-      travel > 0.75 * std::min(sheet_radius, sphere_radius) ||
-      (sphere_radius > sheet_radius &&
-       !(travel < sphere_radius - std::sqrt(sphere_radius * sphere_radius -
-                                             sheet_radius * sheet_radius))) ||
-      samples < 2 ||
-      !(steps_per_unit_log >= 10.0)) {
+  const double a = sheet_radius, R = sphere_radius;
+  // Travel at which the rim circle lies on the sphere (R >= a only).
+  const double wrapped = R >= a ? R - std::sqrt(std::max(R * R - a * a, 0.0)) : R;
+  if (!(a > 0.0) || !(R > 0.0) || !(travel > 0.0) || travel > R * (1.0 + 1e-12) ||
+      (R >= a && travel > wrapped * (1.0 + 1e-12)) || samples < 2 || !(steps_per_unit_log >= 10.0)) {
     throw std::invalid_argument(
-        "membrane press: need a, R > 0, 0 < d <= 0.75 min(a, R), the rim outside the sphere "
-        "(d < R - sqrt(R^2 - a^2) when R > a), at least 2 samples and at least 10 steps per "
+        "membrane press: need a, R > 0, 0 < d <= R, the rim not inside the sphere "
+        "(d <= R - sqrt(R^2 - a^2) when R >= a), at least 2 samples and at least 10 steps per "
         "unit ln(rho)");
   }
-  const detail::Geometry g{sheet_radius, sphere_radius, travel};
+  const detail::Geometry g{a, R, travel};
   const double nan = std::numeric_limits<double>::quiet_NaN();
+  const bool full_contact = R >= a && std::abs(travel - wrapped) <= 1e-12 * R;
 
-  // For a given contact edge: the apex stretch that returns the rim to r = a.
-  // Bisection on the excess stretch l0 - 1 (a slack shot counts as too
-  // little stretch) until both ends are taut, then the Illinois iteration.
-  auto apex_for_edge = [&](double contact_edge) {
+  MembranePressSolution solution;
+  if (full_contact) {
+    // psi(a) grows with l0; overturning before the rim is "too much".
+    const double rim_angle = std::asin(std::min(a / R, 1.0));
     auto rim_error = [&](double apex) {
-      const detail::Shot shot = detail::shoot(apex, contact_edge, g, steps_per_unit_log, nullptr, 0);
-      if (shot.outcome == detail::Outcome::slack) {
-        return -std::numeric_limits<double>::infinity();
+      const detail::Shot shot = detail::shoot(apex, a, g, steps_per_unit_log, nullptr, 0);
+      switch (shot.outcome) {
+        case detail::Outcome::taut: return shot.edge_angle - rim_angle;
+        case detail::Outcome::overturned: return std::numeric_limits<double>::infinity();
+        case detail::Outcome::slack: return -std::numeric_limits<double>::infinity();
+        case detail::Outcome::broken: return nan;
       }
-      return shot.outcome == detail::Outcome::taut ? shot.hoop_at_rim - 1.0 : nan;
+      return nan;
     };
-    double lo = 1.0, hi = 1.5;
-    double f_lo = -std::numeric_limits<double>::infinity(), f_hi = rim_error(hi);
+    double lo = 1.0 + 1e-9, hi = 1.5;
+    double f_lo = rim_error(lo), f_hi = rim_error(hi);
     for (int grow = 0; grow < 20 && f_hi < 0.0; ++grow) {
       lo = hi;
       f_lo = f_hi;
       hi = 1.0 + 2.0 * (hi - 1.0);
       f_hi = rim_error(hi);
     }
-    if (!(f_hi > 0.0)) {
-      return nan;
-    }
-    for (int halve = 0; halve < 200 && !std::isfinite(f_lo); ++halve) {
+    // Bisect until both ends are finite, then the Illinois iteration.
+    for (int halve = 0; halve < 200 && !(std::isfinite(f_lo) && std::isfinite(f_hi)); ++halve) {
       const double mid = 0.5 * (lo + hi);
       const double f_mid = rim_error(mid);
-      if (std::isnan(f_mid)) {
+      if (std::isnan(f_mid) || std::isnan(f_lo) || std::isnan(f_hi)) {
+        throw std::runtime_error("membrane press: full-contact shooting failed");
+      }
+      (f_mid > 0.0 ? hi : lo) = mid;
+      (f_mid > 0.0 ? f_hi : f_lo) = f_mid;
+    }
+    if (!(f_lo < 0.0 && f_hi > 0.0)) {
+      throw std::runtime_error("membrane press: no apex stretch reaches the rim in full contact");
+    }
+    solution.apex_stretch = detail::bracketed_root(rim_error, lo, hi, f_lo, f_hi, 1e-15);
+    solution.contact_edge_reference_radius = a;
+  } else {
+    // For an apex stretch: the contact edge that returns the rim to r = a.
+    // r(a) - a falls as the contact grows; a meridian that overturns or goes
+    // slack has too much contact for its stretch.
+    auto edge_for_apex = [&](double apex) {
+      auto rim_error = [&](double edge) {
+        const detail::Shot shot = detail::shoot(apex, edge, g, steps_per_unit_log, nullptr, 0);
+        if (shot.outcome == detail::Outcome::slack || shot.outcome == detail::Outcome::overturned) {
+          return -1.0;
+        }
+        return shot.outcome == detail::Outcome::taut ? shot.hoop_at_rim - 1.0 : nan;
+      };
+      // A tiny stretch has a tiny contact zone: start the bracket low enough.
+      double lo = 1e-3 * a;
+      double f_lo = rim_error(lo);
+      for (int shrink = 0; shrink < 4 && !(f_lo > 0.0); ++shrink) {
+        lo *= 0.1;
+        f_lo = rim_error(lo);
+      }
+      const double hi = a * (1.0 - 1e-9);
+      const double f_hi = rim_error(hi);
+      if (!(f_lo > 0.0) || !(f_hi < 0.0)) {
         return nan;
       }
-      if (f_mid > 0.0) {
-        hi = mid;
-        f_hi = f_mid;
-      } else {
-        lo = mid;
-        f_lo = f_mid;
+      return detail::bracketed_root(rim_error, lo, hi, f_lo, f_hi, 1e-14);
+    };
+    auto travel_error = [&](double apex) {
+      const double edge = edge_for_apex(apex);
+      if (!std::isfinite(edge)) {
+        return nan;
       }
-      if (hi - lo < 1e-15) {
-        return 0.5 * (lo + hi);
+      const detail::Shot shot = detail::shoot(apex, edge, g, steps_per_unit_log, nullptr, 0);
+      if (shot.outcome != detail::Outcome::taut) {
+        return nan;
       }
+      const double reached = R * (1.0 - std::cos(shot.edge_angle)) + shot.drop;
+      return (reached - travel) / a;
+    };
+    // The travel grows with the apex stretch: bracket from just above 1
+    // (where a stretch too small to shoot with counts as not yet there).
+    double excess = 1e-8;
+    double f_lo = travel_error(1.0 + excess);
+    while (std::isnan(f_lo) && excess < 0.05) {
+      excess *= 4.0;
+      f_lo = travel_error(1.0 + excess);
     }
-    return detail::bracketed_root(rim_error, lo, hi, f_lo, f_hi, 1e-15);
-  };
-  auto travel_error = [&](double contact_edge) {
-    const double apex = apex_for_edge(contact_edge);
-    if (!std::isfinite(apex)) {
-      return nan;
+    if (!(f_lo < 0.0)) {
+      throw std::runtime_error("membrane press: the travel is too small to resolve");
     }
-    const detail::Shot shot = detail::shoot(apex, contact_edge, g, steps_per_unit_log, nullptr, 0);
-    if (shot.outcome != detail::Outcome::taut) {
-      return nan;
-    }
-    const double reached = sphere_radius * (1.0 - std::cos(shot.edge_angle)) + shot.drop;
-    return (reached - travel) / sheet_radius;
-  };
-
-  // The travel grows with the contact edge; bracket from a tiny edge upwards.
-  double lo = 1e-2 * sheet_radius, hi = 2e-2 * sheet_radius;
-  double f_lo = travel_error(lo), f_hi = nan;
-  for (int shrink = 0; shrink < 6 && !(f_lo < 0.0); ++shrink) {
-    hi = lo;
-    f_hi = f_lo;
-    lo *= 0.25;
-    f_lo = travel_error(lo);
-  }
-  if (!(f_lo < 0.0)) {
-    throw std::runtime_error("membrane press: the travel is too small to resolve");
-  }
-  if (!std::isfinite(f_hi)) {
-    f_hi = travel_error(hi);
-  }
-  while (!(f_hi > 0.0)) {
-    if (!(f_hi < 0.0)) {
-      throw std::runtime_error("membrane press: no contact edge reaches the requested travel");
-    }
-    lo = hi;
-    f_lo = f_hi;
-    hi = std::min(2.0 * hi, sheet_radius * (1.0 - 1e-9));
-    if (hi <= lo) {
-      throw std::runtime_error("membrane press: no contact edge reaches the requested travel");
-    }
-    f_hi = travel_error(hi);
-    if (!std::isfinite(f_hi)) {
-      // Past the usable range: halve back towards the last good edge.
-      double good = lo;
-      for (int shrink = 0; shrink < 60 && !std::isfinite(f_hi); ++shrink) {
-        hi = 0.5 * (good + hi);
+    double lo = 1.0 + excess, hi = 1.0 + 2.0 * excess;
+    double f_hi = travel_error(hi);
+    while (!(f_hi > 0.0)) {
+      if (f_hi < 0.0) {
+        lo = hi;
+        f_lo = f_hi;
+        hi = 1.0 + 2.0 * (hi - 1.0);
+        if (hi > 20.0) {
+          throw std::runtime_error("membrane press: no apex stretch reaches the requested travel");
+        }
+        f_hi = travel_error(hi);
+        continue;
+      }
+      // Past the usable range: halve back towards the last good stretch.
+      for (int shrink = 0; shrink < 60 && std::isnan(f_hi); ++shrink) {
+        hi = 0.5 * (lo + hi);
         f_hi = travel_error(hi);
       }
-      if (!std::isfinite(f_hi)) {
+      if (std::isnan(f_hi)) {
         throw std::runtime_error("membrane press: shooting failed near the requested travel");
       }
     }
+    solution.apex_stretch = detail::bracketed_root(travel_error, lo, hi, f_lo, f_hi, 1e-15);
+    solution.contact_edge_reference_radius = edge_for_apex(solution.apex_stretch);
   }
-  const double contact_edge = detail::bracketed_root(travel_error, lo, hi, f_lo, f_hi, 1e-13);
-
-  MembranePressSolution solution;
-  solution.contact_edge_reference_radius = contact_edge;
-  solution.apex_stretch = apex_for_edge(contact_edge);
-  const detail::Shot shot = detail::shoot(solution.apex_stretch, contact_edge, g,
+  const detail::Shot shot = detail::shoot(solution.apex_stretch, solution.contact_edge_reference_radius, g,
                                           steps_per_unit_log, &solution.samples, samples);
   if (shot.outcome != detail::Outcome::taut) {
     throw std::runtime_error("membrane press: the converged shot could not be repeated");

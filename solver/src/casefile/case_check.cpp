@@ -74,7 +74,8 @@ class CaseChecker {
     std::map<std::string, int> first_line;
     for (const LayerSpec& layer : spec_.layers) {
       const std::string path = "layer." + layer.name.value;
-      if (const auto [found, inserted] = first_line.emplace(layer.name.value, layer.name.where.line);
+      if (const auto [found, inserted] =
+              first_line.emplace(layer.name.value, layer.name.where.line);
           !inserted) {
         problems_.add(layer.name.where, path + ".name",
                       "expected a unique layer name, found \"" + layer.name.value +
@@ -106,9 +107,9 @@ class CaseChecker {
     const std::string host_key = defect.kind.value == DefectKind::delamination ? "below" : "layer";
     const auto layer = std::find(layer_names_.begin(), layer_names_.end(), host.value);
     if (layer == layer_names_.end()) {
-      problems_.add(host.where, path + "." + host_key,
-                    "expected the name of a layer, found \"" + host.value + "\"" +
-                        layer_hint(host.value));
+      problems_.add(
+          host.where, path + "." + host_key,
+          "expected the name of a layer, found \"" + host.value + "\"" + layer_hint(host.value));
     } else if (defect.kind.value == DefectKind::delamination && layer + 1 == layer_names_.end()) {
       problems_.add(host.where, path + ".below",
                     "expected a layer with another layer on top of it, found the top layer \"" +
@@ -124,17 +125,19 @@ class CaseChecker {
     const double at = defect.at.value;
     const double half = defect.size.value / 2.0;
     if (half_model() && at < 0.0) {
-      problems_.add(defect.at.where, path + ".at",
-                    std::string("expected at >= 0 on ") +
-                        (spec_.geometry.shape.value == Shape::disk ? "a disk"
-                                                                   : "a symmetric strip") +
-                        ", found " + shown(at));
+      problems_.add(
+          defect.at.where, path + ".at",
+          std::string("expected at >= 0 on ") +
+              (spec_.geometry.shape.value == Shape::disk ? "a disk" : "a symmetric strip") +
+              ", found " + shown(at));
     } else if (half_model() && at != 0.0 && at - half < 0.0) {
-      problems_.add(defect.at.where, path + ".at",
-                    std::string("expected the defect to stay clear of ") +
-                        (spec_.geometry.shape.value == Shape::disk ? "the axis" : "the symmetry plane") +
-                        " (at - size/2 >= 0; use at = 0 for a defect centred on it), found at - "
-                        "size/2 = " + shown(at - half));
+      problems_.add(
+          defect.at.where, path + ".at",
+          std::string("expected the defect to stay clear of ") +
+              (spec_.geometry.shape.value == Shape::disk ? "the axis" : "the symmetry plane") +
+              " (at - size/2 >= 0; use at = 0 for a defect centred on it), found at - "
+              "size/2 = " +
+              shown(at - half));
     } else if (at + half > width || (!half_model() && at - half < -width)) {
       problems_.add(defect.size.where, path + ".size",
                     "expected the defect to fit inside " + width_text() + ", found it spans " +
@@ -173,7 +176,8 @@ class CaseChecker {
   double surface_length() const {
     const LoadSpec& load = spec_.load;
     switch (load.surface.value) {
-      case SurfaceKind::sphere: return std::numbers::pi / 2.0 * load.surface_radius.value;
+      case SurfaceKind::sphere:
+        return std::numbers::pi / 2.0 * load.surface_radius.value;
       case SurfaceKind::ellipsoid: {
         const double a = load.semi_axes.value[0];
         const double b = load.semi_axes.value[1];
@@ -182,7 +186,8 @@ class CaseChecker {
         for (int k = 0; k < segments; ++k) {
           const double t0 = std::numbers::pi / 2.0 * k / segments;
           const double t1 = std::numbers::pi / 2.0 * (k + 1) / segments;
-          length += std::hypot(a * (std::sin(t1) - std::sin(t0)), b * (std::cos(t1) - std::cos(t0)));
+          length +=
+              std::hypot(a * (std::sin(t1) - std::sin(t0)), b * (std::cos(t1) - std::cos(t0)));
         }
         return length;
       }
@@ -205,9 +210,12 @@ class CaseChecker {
     try {
       switch (load.surface.value) {
         case SurfaceKind::sphere:
-          return -solver::RigidSurface::ellipse(load.surface_radius.value, load.surface_radius.value).height_at(r);
+          return -solver::RigidSurface::ellipse(load.surface_radius.value,
+                                                load.surface_radius.value)
+                      .height_at(r);
         case SurfaceKind::ellipsoid:
-          return -solver::RigidSurface::ellipse(load.semi_axes.value[0], load.semi_axes.value[1]).height_at(r);
+          return -solver::RigidSurface::ellipse(load.semi_axes.value[0], load.semi_axes.value[1])
+                      .height_at(r);
         case SurfaceKind::profile:
           return -solver::RigidSurface::profile(load.points.value).height_at(r);
       }
@@ -216,12 +224,31 @@ class CaseChecker {
     return std::nullopt;
   }
 
+  // How far the surface falls from its apex to where its meridian ends.
+  double surface_height() const {
+    const LoadSpec& load = spec_.load;
+    switch (load.surface.value) {
+      case SurfaceKind::sphere:
+        return load.surface_radius.value;
+      case SurfaceKind::ellipsoid:
+        return load.semi_axes.value[1];
+      case SurfaceKind::profile:
+        return load.points.value.empty()
+                   ? 0.0
+                   : load.points.value.front()[1] - load.points.value.back()[1];
+    }
+    return 0.0;
+  }
+
   double surface_reach() const {  // largest r the surface covers
     const LoadSpec& load = spec_.load;
     switch (load.surface.value) {
-      case SurfaceKind::sphere: return load.surface_radius.value;
-      case SurfaceKind::ellipsoid: return load.semi_axes.value[0];
-      case SurfaceKind::profile: return load.points.value.empty() ? 0.0 : load.points.value.back()[0];
+      case SurfaceKind::sphere:
+        return load.surface_radius.value;
+      case SurfaceKind::ellipsoid:
+        return load.semi_axes.value[0];
+      case SurfaceKind::profile:
+        return load.points.value.empty() ? 0.0 : load.points.value.back()[0];
     }
     return 0.0;
   }
@@ -230,7 +257,8 @@ class CaseChecker {
   // interpolation that does not rise), reported against the points' line.
   void check_profile() {
     const auto& points = spec_.load.points;
-    if (const std::optional<std::string> problem = solver::RigidSurface::profile_problem(points.value)) {
+    if (const std::optional<std::string> problem =
+            solver::RigidSurface::profile_problem(points.value)) {
       problems_.add(points.where, "load.points", *problem);
     }
   }
@@ -261,24 +289,34 @@ class CaseChecker {
           problems_.add(load.ring.where, "load.ring",
                         "expected a ring radius of at most " + width_text() + ", found " +
                             shown(load.ring.value));
-        } else if (surface_reach() < load.ring.value) {
-          problems_.add(load.surface.where, "load.surface",
-                        "expected a surface reaching the ring radius " + shown(load.ring.value) +
-                            ", found it ends at r = " + shown(surface_reach()));
-        } else if (const std::optional<double> drop = surface_drop_at(load.ring.value);
-                   drop && load.travel.value >= *drop) {
-          // Past this travel the surface is wider than the ring where it
-          // crosses the ring's plane: it would run into the ring itself.
-          problems_.add(load.travel.where, "load.travel",
-                        "expected a travel below " + shown(*drop) +
-                            ", the surface's drop from its apex to the ring radius " + shown(load.ring.value) +
-                            " (further, the surface would hit the ring), found " + shown(load.travel.value));
+        } else if (const std::optional<double> drop = surface_drop_at(load.ring.value); drop) {
+          // The surface may be narrower than the ring: the sheet then spans
+          // the gap freely. Two limits remain. Where the meridian ends (an
+          // ellipse at its equator, a profile at its last point) the surface
+          // has no more height to give. And a surface wider than the ring
+          // where it crosses the ring's plane would run into the ring itself.
+          const double height = surface_height();
+          const double slack = 1e-9 * std::max(height, load.ring.value);
+          if (load.travel.value > height + slack) {
+            problems_.add(
+                load.travel.where, "load.travel",
+                "expected a travel of at most " + shown(height) +
+                    ", the surface's height from its apex to where its meridian ends at r = " +
+                    shown(surface_reach()) + ", found " + shown(load.travel.value));
+          } else if (surface_reach() > load.ring.value && load.travel.value > *drop + slack) {
+            problems_.add(load.travel.where, "load.travel",
+                          "expected a travel of at most " + shown(*drop) +
+                              ", the surface's drop from its apex to the ring radius " +
+                              shown(load.ring.value) +
+                              " (further, the surface would hit the ring), found " +
+                              shown(load.travel.value));
+          }
         }
       }
       if (load.local_at.value && *load.local_at.value > width) {
-        problems_.add(load.local_at.where, "load.local_at",
-                      "expected a point inside " + width_text() + ", found " +
-                          shown(*load.local_at.value));
+        problems_.add(
+            load.local_at.where, "load.local_at",
+            "expected a point inside " + width_text() + ", found " + shown(*load.local_at.value));
       }
     }
     if (load.max_steps.value < load.steps.value) {
@@ -292,10 +330,10 @@ class CaseChecker {
     const MeshSpec& mesh = spec_.mesh;
     if (mesh.size_near.value > mesh.size_far.value) {
       const Located<double>& culprit = mesh.size_near.given ? mesh.size_near : mesh.size_far;
-      problems_.add(culprit.where, mesh.size_near.given ? "mesh.size_near" : "mesh.size_far",
-                    "expected mesh.size_near (" + shown(mesh.size_near.value) +
-                        ") at most mesh.size_far, found mesh.size_far = " +
-                        shown(mesh.size_far.value));
+      problems_.add(
+          culprit.where, mesh.size_near.given ? "mesh.size_near" : "mesh.size_far",
+          "expected mesh.size_near (" + shown(mesh.size_near.value) +
+              ") at most mesh.size_far, found mesh.size_far = " + shown(mesh.size_far.value));
     }
   }
 
@@ -303,7 +341,8 @@ class CaseChecker {
     std::map<std::string, int> first_line;
     for (const VariantSpec& variant : spec_.variants) {
       const std::string path = "variant." + variant.name.value;
-      if (const auto [found, inserted] = first_line.emplace(variant.name.value, variant.name.where.line);
+      if (const auto [found, inserted] =
+              first_line.emplace(variant.name.value, variant.name.where.line);
           !inserted) {
         problems_.add(variant.name.where, path + ".name",
                       "expected a unique variant name, found \"" + variant.name.value +
@@ -330,6 +369,8 @@ class CaseChecker {
 
 }  // namespace
 
-void check_case(const CaseSpec& spec, Problems& problems) { CaseChecker(spec, problems).run(); }
+void check_case(const CaseSpec& spec, Problems& problems) {
+  CaseChecker(spec, problems).run();
+}
 
 }  // namespace plystrain::casefile
