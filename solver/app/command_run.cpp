@@ -58,7 +58,7 @@ Command add_run_command(CLI::App& app) {
       "a [sweep])");
   add_solve_options(*command, *options);
   command->add_flag("--verify", *verify,
-                    "Rerun with the mesh near the defects halved and the width doubled, and report "
+                    "Rerun with the mesh halved and the width doubled, and report "
                     "how far each peak moved (as report.verify in the case)");
   return {command, [options, verify] {
             const CaseSpec spec = read_case(options->case_path);

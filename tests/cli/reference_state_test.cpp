@@ -205,3 +205,29 @@ TEST_CASE("a slit in a film on a soft base: the chosen width isolates it",
   // the applied strain.
   CHECK(narrow.results["cell"]["edge_disturbance"].get<double>() > 0.02);
 }
+
+TEST_CASE("--verify reruns a case finer and wider and reports how far each peak moved",
+          "[cli][reference][verify]") {
+  // A uniform laminate state is reproduced exactly by any mesh and any width
+  // (patch test, common practice), so both reruns must give the same peaks
+  // to rounding and the verdict must say so.
+  const std::filesystem::path out = plystrain::test::fresh_output_dir("verify-uniform");
+  const auto result = run_plystrain("run '" + data_path("cli/stretch-stack-uniform.toml") + "' --out '" +
+                                    out.string() + "' --threads 1 --verify");
+  INFO(result.out << "\n" << result.err);
+  REQUIRE(result.exit_code == 0);
+  const nlohmann::json results = nlohmann::json::parse(read_text(out / "results.json"));
+  const nlohmann::json& verification = results["verification"];
+  REQUIRE(verification.is_object());
+  CHECK(verification["converged"] == true);
+  CHECK(verification["verdict"].get<std::string>().find("converged within 2 %") == 0);
+  REQUIRE(verification["reruns"].size() == 2);
+  for (const nlohmann::json& rerun : verification["reruns"]) {
+    INFO("rerun " << rerun["what"]);
+    CHECK(std::filesystem::exists(out / rerun["folder"].get<std::string>() / "results.json"));
+    CHECK(rerun["layers"].size() == 3);
+    CHECK(rerun["largest_change"].get<double>() < 1e-9);
+  }
+  CHECK(result.out.find("Convergence check: converged within 2 %") != std::string::npos);
+  std::filesystem::remove_all(out);
+}

@@ -88,6 +88,13 @@ std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
   const auto max_strain = [](const solver::PointResult& point) {
     return point.max_principal_strain;
   };
+  solver::PointResults edge_points;
+  edge_points.status = points.status;
+  for (const solver::PointResult& point : points.points) {
+    if (std::abs(point.position.x()) >= edge_start) {
+      edge_points.points.push_back(point);
+    }
+  }
   const auto negated_min_strain = [](const solver::PointResult& point) {
     return -point.min_principal_strain;
   };
@@ -120,15 +127,12 @@ std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
     }
 
     // Measured for the curious and for the isolation check: what the layer
-    // carries at the outer edge of the modelled width.
-    double at_edge = -std::numeric_limits<double>::infinity();
-    for (const solver::PointResult& point : points.points) {
-      if (point.region == r && std::abs(point.position.x()) >= edge_start) {
-        at_edge = std::max(at_edge, point.max_principal_strain);
-      }
-    }
-    if (std::isfinite(at_edge)) {
-      result.strain_at_cell_edge = at_edge;
+    // carries at the outer edge of the modelled width, averaged like the
+    // peak (a raw value would differ from the averaged undisturbed one by
+    // the strain's gradient through a bent layer).
+    const solver::DiscPeak at_edge = solver::max_disc_average(edge_points, r, radius, max_strain);
+    if (std::isfinite(at_edge.value)) {
+      result.strain_at_cell_edge = at_edge.value;
     }
     // The concentration is taken against the same stack without its
     // defects under the same load, at the peak's place: a far field measured

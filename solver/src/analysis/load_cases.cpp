@@ -487,15 +487,17 @@ std::optional<CaseSpec> undisturbed_case(const CaseSpec& spec, double load_facto
       return reference;
   }
   // The laminate state does not vary along x: a cell one stack thickness
-  // wide, two cells across, holds it whole (a uniform stretch is reproduced
-  // exactly by any element, pure bending by quadratic ones).
-  const double width = spec.total_thickness();
+  // wide holds it whole (a uniform stretch is reproduced exactly by any
+  // element, pure bending by quadratic ones). Its far size stays the case's,
+  // so that every layer has as many cells through its thickness as in the
+  // case's own mesh (the mesher sets that count from size_far): a layer's
+  // largest strain in bending is read at its outermost integration points,
+  // and they then sit at the same heights in both.
+  const double width = std::max(spec.total_thickness(), spec.mesh.size_far.value);
   reference.geometry.width.value = width;
   reference.geometry.defect_spacing.given = false;
   reference.geometry.symmetric.value = true;
-  reference.mesh.size_far.value = 0.5 * width;
-  reference.mesh.size_near.value = std::min(reference.mesh.size_near.value, 0.5 * width);
-  reference.mesh.grade_over.value = 0.5 * width;
+  reference.mesh.grade_over.value = width;
   return reference;
 }
 

@@ -279,7 +279,7 @@ std::vector<KeyInfo> build_table() {
        .kind = V::boolean,
        .fixed_default = CaseValue{false},
        .default_text = "false",
-       .help = "after the run, solve the case again with the mesh near the defects halved, and "
+       .help = "after the run, solve the case again with the mesh halved (size_near and size_far), and "
                "(stretch and bend, unless a defect spacing is stated) with the width doubled, "
                "and report how far each layer's peak moved (as `--verify`)"});
 

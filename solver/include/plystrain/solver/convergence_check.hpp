@@ -1,5 +1,5 @@
 // A certificate for a user's own case: rerun it with the choices the user
-// did not make on purpose changed (the mesh near the defects halved; the
+// did not make on purpose changed (the mesh halved; the
 // cell twice as wide) and say how far each layer's peak moved.
 #pragma once
 
@@ -21,11 +21,10 @@ struct ConvergenceRerunPlan {
   CaseSpec spec;
 };
 
-// The reruns of `spec`: always the mesh near the defects halved (and, for
-// conform, the far mesh too, since the strain varies over the whole
-// device); for stretch and bend also the width doubled with the same mesh
-// sizes, unless the user stated a defect spacing (then the width is the
-// physics, not a modelling choice).
+// The reruns of `spec`: always the mesh halved (size_near and size_far);
+// for stretch and bend also the width doubled with the same mesh sizes,
+// unless the user stated a defect spacing (then the width is the physics,
+// not a modelling choice).
 [[nodiscard]] std::vector<ConvergenceRerunPlan> convergence_reruns(const CaseSpec& spec);
 
 // Compares the governing peaks (largest over the global result and every

@@ -43,7 +43,8 @@ struct LayerResult {
   // the same load) in this layer at the peak's place.
   double far_field_strain = 0.0;
   std::optional<double> concentration;  // peak / far field; null when the far field is below 1e-9
-  // Largest strain of the layer in the outer 5 % of the modelled width.
+  // Largest strain of the layer in the outer 5 % of the modelled width
+  // (disc-averaged like the peak).
   std::optional<double> strain_at_cell_edge;
   double min_strain = 0.0;
   double peak_stress = 0.0;          // MPa, largest principal Cauchy stress at peak_at
@@ -116,7 +117,7 @@ struct PeakChange {
   double change = 0.0;      // |rerun / run - 1|
 };
 struct ConvergenceRerun {
-  std::string what;    // "mesh near the defects halved", "width doubled"
+  std::string what;    // "mesh halved (...)", "width doubled"
   std::string folder;  // the rerun's own output folder, relative to the run's
   bool completed = false;
   std::vector<PeakChange> layers;
