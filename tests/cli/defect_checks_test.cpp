@@ -7,6 +7,7 @@
 // neo-Hookean solids used at small strain, so that linear closed forms apply
 // to within about the applied strain, relatively.
 #include "cli/cli_support.hpp"
+#include "cli/results_support.hpp"
 #include "cli/field_readback.hpp"
 
 #include <catch2/catch.hpp>
@@ -28,6 +29,7 @@
 
 using plystrain::test::data_path;
 using plystrain::test::read_text;
+using plystrain::test::layer_named;
 using plystrain::test::run_plystrain;
 
 namespace {
@@ -53,17 +55,6 @@ std::filesystem::path compare_case(const std::string& case_file, const std::stri
   INFO(result.out << "\n" << result.err);
   REQUIRE(result.exit_code == 0);
   return out;
-}
-
-const nlohmann::json& layer_named(const nlohmann::json& results, const std::string& name) {
-  for (const nlohmann::json& layer : results["layers"]) {
-    if (layer["name"] == name) {
-      return layer;
-    }
-  }
-  FAIL("no layer " << name << " in the results");
-  static const nlohmann::json none;
-  return none;
 }
 
 nlohmann::json results_of(const std::filesystem::path& out, const std::string& run) {

@@ -1,6 +1,7 @@
 // End-to-end checks of the undisturbed reference state, of edges that add no
 // disturbance of their own, and of the width a case chooses for itself.
 #include "cli/cli_support.hpp"
+#include "cli/results_support.hpp"
 
 #include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
@@ -12,7 +13,9 @@
 #include <string>
 
 using plystrain::test::data_path;
+using plystrain::test::has_caution;
 using plystrain::test::read_text;
+using plystrain::test::layer_named;
 using plystrain::test::run_plystrain;
 
 namespace {
@@ -31,26 +34,6 @@ Run run_file(const std::filesystem::path& case_file, const std::string& name) {
   Run run{nlohmann::json::parse(read_text(out / "results.json")), result.out};
   std::filesystem::remove_all(out);
   return run;
-}
-
-const nlohmann::json& layer_named(const nlohmann::json& results, const std::string& name) {
-  for (const nlohmann::json& layer : results["layers"]) {
-    if (layer["name"] == name) {
-      return layer;
-    }
-  }
-  FAIL("no layer " << name << " in the results");
-  static const nlohmann::json none;
-  return none;
-}
-
-bool has_caution(const nlohmann::json& results, const std::string& fragment) {
-  for (const nlohmann::json& caution : results["cautions"]) {
-    if (caution.get<std::string>().find(fragment) != std::string::npos) {
-      return true;
-    }
-  }
-  return false;
 }
 
 double plane_strain_modulus(double youngs_modulus, double poisson_ratio) {
