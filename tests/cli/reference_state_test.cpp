@@ -189,7 +189,7 @@ TEST_CASE("a slit in a film on a soft base: the chosen width isolates it",
   CHECK(narrow.results["cell"]["edge_disturbance"].get<double>() > 0.02);
 }
 
-TEST_CASE("--verify reruns a case finer and wider and reports how far each peak moved",
+TEST_CASE("the convergence check reruns a case finer and wider and reports how far each peak moved",
           "[cli][reference][verify]") {
   // A uniform laminate state is reproduced exactly by any mesh and any width
   // (patch test, common practice), so both reruns must give the same peaks
