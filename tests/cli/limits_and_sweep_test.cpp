@@ -2,6 +2,7 @@
 // margin and the headline, from a run whose strain is known in closed form;
 // a [sweep] run end to end; compare refusing a swept case.
 #include "cli/cli_support.hpp"
+#include "text_support.hpp"
 
 #include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
@@ -14,6 +15,9 @@
 
 using plystrain::test::read_text;
 using plystrain::test::run_plystrain;
+
+using plystrain::test::lines_of;
+using plystrain::test::split;
 
 namespace {
 
@@ -58,29 +62,6 @@ std::filesystem::path write_case(const std::string& name, const std::string& cas
   std::ofstream(dir / "limits.toml") << materials_text;
   std::ofstream(dir / "case.toml") << case_text;
   return dir;
-}
-
-std::vector<std::string> lines_of(const std::string& text) {
-  std::vector<std::string> lines;
-  std::istringstream in(text);
-  std::string line;
-  while (std::getline(in, line)) {
-    lines.push_back(line);
-  }
-  return lines;
-}
-
-std::vector<std::string> split(const std::string& line) {
-  std::vector<std::string> fields;
-  std::size_t start = 0;
-  while (true) {
-    const std::size_t comma = line.find(',', start);
-    fields.push_back(line.substr(start, comma - start));
-    if (comma == std::string::npos) {
-      return fields;
-    }
-    start = comma + 1;
-  }
 }
 
 }  // namespace

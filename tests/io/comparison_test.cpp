@@ -3,6 +3,7 @@
 // peak), absent layers shown as absent rather than zero, and the files read
 // back; a sweep's combined table.
 #include "io_fixtures.hpp"
+#include "text_support.hpp"
 
 #include "plystrain/solver/comparison.hpp"
 
@@ -10,6 +11,9 @@
 #include <nlohmann/json.hpp>
 
 #include <fstream>
+
+using plystrain::test::read_lines;
+using plystrain::test::split;
 
 namespace {
 
@@ -28,29 +32,6 @@ RunResults completed_run(double absorber_peak, double absorber_onset) {
   absorber.yield_margin = 1.0 - absorber_peak / *absorber.yield_strain;
   absorber.verdict = plystrain::judge(absorber_peak, absorber_onset, absorber.yield_strain);
   return run;
-}
-
-std::vector<std::string> read_lines(const std::filesystem::path& path) {
-  std::ifstream in(path);
-  std::vector<std::string> lines;
-  std::string line;
-  while (std::getline(in, line)) {
-    lines.push_back(line);
-  }
-  return lines;
-}
-
-std::vector<std::string> split(const std::string& line) {
-  std::vector<std::string> fields;
-  std::size_t start = 0;
-  while (true) {
-    const std::size_t comma = line.find(',', start);
-    fields.push_back(line.substr(start, comma - start));
-    if (comma == std::string::npos) {
-      return fields;
-    }
-    start = comma + 1;
-  }
 }
 
 }  // namespace

@@ -1,6 +1,7 @@
 // profiles.csv read back: the documented header, one row per sample, lengths
 // in the case's unit and numbers that parse back to the same doubles.
 #include "io_fixtures.hpp"
+#include "text_support.hpp"
 
 #include "plystrain/solver/results_writers.hpp"
 
@@ -9,30 +10,10 @@
 #include <charconv>
 #include <fstream>
 
+using plystrain::test::read_lines;
+using plystrain::test::split;
+
 namespace {
-
-std::vector<std::string> read_lines(const std::filesystem::path& path) {
-  std::ifstream in(path);
-  std::vector<std::string> lines;
-  std::string line;
-  while (std::getline(in, line)) {
-    lines.push_back(line);
-  }
-  return lines;
-}
-
-std::vector<std::string> split(const std::string& line) {
-  std::vector<std::string> fields;
-  std::size_t start = 0;
-  while (true) {
-    const std::size_t comma = line.find(',', start);
-    fields.push_back(line.substr(start, comma - start));
-    if (comma == std::string::npos) {
-      return fields;
-    }
-    start = comma + 1;
-  }
-}
 
 double parse(const std::string& text) {
   double value = 0.0;

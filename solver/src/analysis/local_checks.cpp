@@ -27,12 +27,6 @@ double layer_mid_height(const CaseSpec& spec, std::size_t layer) {
   return below + 0.5 * spec.layers[layer].thickness.value;
 }
 
-// How far the defect reaches from its centre.
-double defect_reach(const DefectSpec& defect) {
-  const double taper = defect.kind.value == DefectKind::thin_spot ? defect.taper.value : 0.0;
-  return 0.5 * defect.size.value + taper;
-}
-
 }  // namespace
 
 CaseSpec without_defects(const CaseSpec& spec) {
@@ -59,7 +53,7 @@ CaseSpec local_cell_case(const CaseSpec& spec, std::size_t defect_index, double 
   // Wide enough that the defect's disturbance has died out at the loaded
   // edge: its zone of influence in this stack (zone_of_influence.hpp), and
   // never less than ten times its own reach.
-  const double width = std::max(10.0 * defect_reach(defect),
+  const double width = std::max(10.0 * defect_outer_edge(centred),
                                 default_width({centred}, stack_scales(spec.layers, spec.library)));
   cell.geometry.width.value = width;
   cell.geometry.width.given = true;

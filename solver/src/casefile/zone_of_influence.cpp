@@ -120,16 +120,20 @@ StackScales stack_scales(const std::vector<LayerSpec>& layers, const MaterialLib
   return scales;
 }
 
-double zone_of_influence(const DefectSpec& defect, const StackScales& scales) {
+double defect_outer_edge(const DefectSpec& defect) {
   const double taper = defect.kind.value == DefectKind::thin_spot ? defect.taper.value : 0.0;
-  return std::abs(defect.at.value) + 0.5 * defect.size.value + taper + scales.decay_length();
+  return std::abs(defect.at.value) + 0.5 * defect.size.value + taper;
+}
+
+double zone_of_influence(const DefectSpec& defect, const StackScales& scales) {
+  return defect_outer_edge(defect) + scales.decay_length();
 }
 
 double default_width(const std::vector<DefectSpec>& defects, const StackScales& scales) {
   const double beyond = zones_per_default_width * scales.decay_length();
   double width = beyond;
   for (const DefectSpec& defect : defects) {
-    width = std::max(width, zone_of_influence(defect, scales) - scales.decay_length() + beyond);
+    width = std::max(width, defect_outer_edge(defect) + beyond);
   }
   return width;
 }

@@ -32,6 +32,10 @@ struct StackScales {
 [[nodiscard]] StackScales stack_scales(const std::vector<LayerSpec>& layers,
                                        const MaterialLibrary& library);
 
+// How far from the axis / symmetry plane the defect itself reaches:
+// |at| + size / 2, plus a thin spot's taper.
+[[nodiscard]] double defect_outer_edge(const DefectSpec& defect);
+
 // How far from the axis / symmetry plane a defect's disturbance reaches:
 // its outer edge (|at| + size / 2, plus a thin spot's taper) plus the
 // stack's decay length.
