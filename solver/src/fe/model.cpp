@@ -559,7 +559,9 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
     const Eigen::Vector2d x = current_position(node.node, z);
     Eigen::Vector2d f;
     Eigen::Matrix2d stiffness;
-    if (surface_node_forces(contact, node, surface_states[k], placement_at(contact, load_factor), x, f, stiffness)) {
+    const FrictionlessTouch touch = held_touch.empty() ? FrictionlessTouch::by_gap : held_touch[k];
+    if (surface_node_forces(contact, node, surface_states[k], placement_at(contact, load_factor), x, f, stiffness,
+                            touch)) {
       const int block = surface_block_begin + static_cast<int>(k);
       assembly.scatter_vector(block, f.data(), 2, forces);
       if (tangent) {
@@ -652,8 +654,8 @@ bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
   for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
     const SurfaceContactNode& node = impl.surface_nodes[k];
     const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
-    if (contact.kind == SurfaceContactKind::held_on) {
-      continue;
+    if (contact.kind != SurfaceContactKind::bonded) {
+      continue;  // held on, or frictionless: decided at every evaluation
     }
     SurfaceNodeState& state = impl.surface_states[k];
     if (contact.kind == SurfaceContactKind::bonded && state.closed) {
@@ -674,6 +676,32 @@ bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
   }
   impl.contact_updates += changed ? 1 : 0;
   return changed;
+}
+
+Evaluation Model::load_derivative(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& derivative) {
+  ModelImpl& impl = *impl_;
+  if (impl.surface_nodes.empty()) {
+    return NonlinearSystem::load_derivative(q, load_factor, derivative);
+  }
+  // The difference step moves a rigid surface by step * d(lift)/d(lambda),
+  // which can exceed the penalty's own penetration (nanometres under a light
+  // press): a node that touches at lambda would drop out at lambda - step and
+  // its whole force would enter the derivative. Held at lambda's touching
+  // set, the derivative is the one of the equations Newton linearises.
+  const Eigen::VectorXd z = impl.variables(q, load_factor);
+  impl.held_touch.assign(impl.surface_nodes.size(), FrictionlessTouch::by_gap);
+  for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
+    const SurfaceContactNode& node = impl.surface_nodes[k];
+    const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
+    if (contact.kind == SurfaceContactKind::frictionless) {
+      const SurfacePoint nearest =
+          nearest_surface_point(contact, placement_at(contact, load_factor), impl.current_position(node.node, z));
+      impl.held_touch[k] = nearest.gap < 0.0 ? FrictionlessTouch::held_closed : FrictionlessTouch::held_open;
+    }
+  }
+  const Evaluation result = NonlinearSystem::load_derivative(q, load_factor, derivative);
+  impl.held_touch.clear();
+  return result;
 }
 
 void Model::accept_increment(const Eigen::VectorXd&, double) {

@@ -64,6 +64,8 @@ class ModelImpl {
   std::vector<SurfaceContactNode> surface_nodes;
   std::vector<SurfaceNodeState> surface_states;           // used by evaluate
   std::vector<SurfaceNodeState> accepted_surface_states;  // as accepted with the last increment
+  // Empty except within Model::load_derivative (see FrictionlessTouch).
+  std::vector<FrictionlessTouch> held_touch;
   int surface_block_begin = 0;
   int variable_count = 0;
   int out_of_plane_variable = -1;  // e3 (generalized plane strain)

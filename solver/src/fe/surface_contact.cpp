@@ -13,10 +13,16 @@ SurfacePoint nearest_surface_point(const SurfaceContact& contact, const SurfaceP
 
 bool surface_node_forces(const SurfaceContact& contact, const SurfaceContactNode& node, const SurfaceNodeState& state,
                          const SurfacePlacement& at, const Eigen::Vector2d& x, Eigen::Vector2d& force,
-                         Eigen::Matrix2d& stiffness) {
+                         Eigen::Matrix2d& stiffness, FrictionlessTouch touch) {
   force.setZero();
   stiffness.setZero();
-  const bool active = contact.kind == SurfaceContactKind::held_on || state.closed;
+  // A frictionless node carries a force exactly while it penetrates, decided
+  // afresh at every evaluation: the energy k/2 min(g, 0)^2 is continuously
+  // differentiable, so Newton settles the touching set together with the
+  // displacements instead of restarting once per change of the set.
+  const bool frictionless = contact.kind == SurfaceContactKind::frictionless;
+  const bool active = contact.kind == SurfaceContactKind::held_on || state.closed ||
+                      (frictionless && touch != FrictionlessTouch::held_open);
   if (!active) {
     return false;
   }
@@ -33,6 +39,9 @@ bool surface_node_forces(const SurfaceContact& contact, const SurfaceContactNode
   // d2g/dx2 = kappa t t^T / (1 + kappa g) for the closest-point projection.
   const SurfacePoint nearest = nearest_surface_point(contact, at, x);
   const double g = nearest.gap;
+  if (frictionless && touch == FrictionlessTouch::by_gap && g >= 0.0) {
+    return false;
+  }
   force = k * g * nearest.normal;
   const double bend = nearest.curvature / (1.0 + nearest.curvature * g);
   stiffness = k * (nearest.normal * nearest.normal.transpose() + g * bend * nearest.tangent * nearest.tangent.transpose());

@@ -36,10 +36,15 @@ struct SurfaceNodeState {
   double stick_parameter = 0.0;
 };
 
+// Whether a frictionless node touches: decided by its gap at the point of
+// evaluation, or held as it was at another point (a derivative with respect
+// to the load factor must not see nodes flip within its difference step).
+enum class FrictionlessTouch : signed char { by_gap, held_open, held_closed };
+
 // Force (2) and tangent (2 x 2) on a node at current position x. Returns
 // false (and zeros) when the node carries nothing.
 bool surface_node_forces(const SurfaceContact& contact, const SurfaceContactNode& node, const SurfaceNodeState& state,
                          const SurfacePlacement& at, const Eigen::Vector2d& x, Eigen::Vector2d& force,
-                         Eigen::Matrix2d& stiffness);
+                         Eigen::Matrix2d& stiffness, FrictionlessTouch touch = FrictionlessTouch::by_gap);
 
 }  // namespace plystrain::solver

@@ -85,9 +85,16 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
   // Growth after a cut-back stops short of the size that failed, and the
   // ceiling lifts only slowly: otherwise growth leads straight back into the
   // same failure, each one costing several indefinite factorizations.
+  // The ceiling belongs to the stretch of the path where the failure
+  // happened: once the path has gone well past it (the stiffness, the
+  // touching set, the buckled shape have all changed since) growth is free
+  // again, or a failure in the first per mille of a path would hold every
+  // later increment down.
   double growth_ceiling = std::numeric_limits<double>::infinity();
+  double ceiling_ends_at = 0.0;
   constexpr double ceiling_below_failure = 0.7;
   constexpr double ceiling_lift = 1.1;
+  constexpr double ceiling_reach = 4.0;  // in sizes of the failed increment, past where it started
   const double shrink_floor = 0.25 * nominal;
   double q_scale = 1.0;  // arc-length scaling of q, set after the first increment
   const double controlled_start =
@@ -322,6 +329,9 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
         size = ramping ? std::min(size * options.ramp_growth_factor, nominal) : size * options.growth_factor;
         size = std::min({size, options.max_increment, std::max(growth_ceiling, attempted_size)});
         growth_ceiling *= ceiling_lift;
+        if (position > ceiling_ends_at) {
+          growth_ceiling = std::numeric_limits<double>::infinity();
+        }
       } else {
         // A hard increment warns that the next one of the same size may fail
         // outright; Newton's work grows roughly with the square of the step
@@ -350,6 +360,7 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
     result.last_failure = std::move(newton);
     size = failure.next_increment;
     growth_ceiling = ceiling_below_failure * attempted_size;
+    ceiling_ends_at = position + ceiling_reach * attempted_size;
     ramping = false;
     if (size < options.min_increment) {
       return finish(PathStatus::increment_too_small,

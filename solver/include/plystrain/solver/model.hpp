@@ -275,6 +275,7 @@ class Model final : public NonlinearSystem {
   // closed pair pulled apart opens, an open pair pushed through closes, and
   // Newton iterates again at the same load.
   bool update_active_set(const Eigen::VectorXd& q, double load_factor) override;
+  Evaluation load_derivative(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& derivative) override;
   void accept_increment(const Eigen::VectorXd& q, double load_factor) override;
   void begin_attempt() override;
 
