@@ -30,6 +30,10 @@ struct SolveOptions {
   int threads = 0;  // 0: the OpenMP default
 };
 
+// Inside a catch block: prints the error in flight and returns its exit code
+// (bad input 2, anything else 1).
+int report_exception();
+
 // Adds CASE, --out and --threads to `command`, bound to `options`.
 void add_solve_options(CLI::App& command, SolveOptions& options);
 
