@@ -12,13 +12,6 @@
 
 namespace plystrain::cli {
 
-void add_solve_options(CLI::App& command, SolveOptions& options) {
-  command.add_option("CASE", options.case_path, "The case file (TOML)")->required();
-  command.add_option("--out", options.out, "Output directory (default: the case's report.out)");
-  command.add_option("--threads", options.threads, "Threads for assembly (default: all cores)")
-      ->check(CLI::NonNegativeNumber);
-}
-
 namespace {
 
 int internal_error(const std::string& what) {
