@@ -13,15 +13,14 @@ namespace plystrain::cli {
 // Catches SIGINT and SIGTERM while it lives; restores the previous handlers
 // when it goes.
 class InterruptHandlers {
+  struct sigaction previous_interrupt_ {};
+  struct sigaction previous_terminate_ {};
+
  public:
   InterruptHandlers();
   ~InterruptHandlers();
   InterruptHandlers(const InterruptHandlers&) = delete;
   InterruptHandlers& operator=(const InterruptHandlers&) = delete;
-
- private:
-  struct sigaction previous_interrupt_ {};
-  struct sigaction previous_terminate_ {};
 };
 
 // The name of the signal that asked the run to stop ("SIGINT", "SIGTERM"),

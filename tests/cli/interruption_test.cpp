@@ -16,14 +16,11 @@
 #include <set>
 #include <string>
 
-using plystrain::test::ChildRun;
-using plystrain::test::data_path;
-using plystrain::test::fresh_output_dir;
-using plystrain::test::read_text;
-
 namespace {
 
 namespace fs = std::filesystem;
+using plystrain::test::ChildRun;
+using plystrain::test::read_text;
 
 nlohmann::json results_in(const fs::path& folder) {
   std::ifstream in(folder / "results.json");
@@ -95,9 +92,9 @@ TEST_CASE("an interrupted rerun over a complete run leaves one run: its own, par
   // A uniform strip: 40 nominal increments (about 45 with the first ones
   // ramped), each a fraction of a second; the test signals the run right
   // after its first, so it stops far from the full load.
-  const fs::path scratch = fresh_output_dir("interrupt");
+  const fs::path scratch = plystrain::test::fresh_output_dir("interrupt");
   fs::create_directories(scratch);
-  const std::string slow_text = read_text(data_path("cli/interrupt-strip.toml"));
+  const std::string slow_text = read_text(plystrain::test::data_path("cli/interrupt-strip.toml"));
   std::string quick_text = slow_text;
   quick_text.replace(quick_text.find("steps = 40"), 10, "steps = 2");
   quick_text.replace(quick_text.find("to be interrupted"), 17, "run to the end");
