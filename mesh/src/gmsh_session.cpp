@@ -7,7 +7,10 @@
 
 #include <atomic>
 #include <exception>
+#include <string>
+#include <type_traits>
 #include <utility>
+#include <vector>
 
 namespace plystrain::mesh {
 
@@ -22,7 +25,7 @@ std::atomic<bool>& session_alive() {
 
 // Gmsh 4.8 throws std::string (and sometimes const char*) on errors.
 template <class Call>
-auto guarded(const char* what, Call&& call) -> decltype(call()) {
+auto translated(const char* what, Call&& call) -> decltype(call()) {
   try {
     return std::forward<Call>(call)();
   } catch (const std::string& message) {
@@ -36,6 +39,50 @@ auto guarded(const char* what, Call&& call) -> decltype(call()) {
   }
 }
 
+// Gmsh's errors are logged, not thrown (General.AbortOnError = 0): thrown,
+// an error raised inside one of Gmsh's own OpenMP loops (a transfinite
+// surface it cannot mesh) leaves the parallel region and aborts the process.
+// The log of each call is read afterwards and its first error becomes a
+// MeshError.
+class LoggedErrors {
+ public:
+  LoggedErrors() { gmsh::logger::start(); }
+  ~LoggedErrors() {
+    try {
+      gmsh::logger::stop();
+    } catch (...) {
+      // Stopping the log only fails when Gmsh is gone; nothing to undo then.
+    }
+  }
+  LoggedErrors(const LoggedErrors&) = delete;
+  LoggedErrors& operator=(const LoggedErrors&) = delete;
+
+  void throw_first(const char* what) const {
+    std::vector<std::string> log;
+    gmsh::logger::get(log);
+    const std::string prefix = "Error: ";
+    for (const std::string& line : log) {
+      if (line.rfind("Error", 0) == 0) {
+        const std::string message = line.rfind(prefix, 0) == 0 ? line.substr(prefix.size()) : line;
+        throw MeshError(std::string("Gmsh failed in ") + what + ": " + message);
+      }
+    }
+  }
+};
+
+template <class Call>
+auto guarded(const char* what, Call&& call) -> decltype(call()) {
+  const LoggedErrors errors;
+  if constexpr (std::is_void_v<decltype(call())>) {
+    translated(what, std::forward<Call>(call));
+    errors.throw_first(what);
+  } else {
+    auto result = translated(what, std::forward<Call>(call));
+    errors.throw_first(what);
+    return result;
+  }
+}
+
 }  // namespace
 
 GmshSession::GmshSession() {
@@ -45,10 +92,14 @@ GmshSession::GmshSession() {
   }
   saved_omp_threads_ = omp_get_max_threads();
   try {
-    guarded("initialize", [] { gmsh::initialize(0, nullptr, false); });
-    guarded("setting options", [] {
+    translated("initialize", [] {
+      gmsh::initialize(0, nullptr, false);
+      gmsh::option::setNumber("General.AbortOnError", 0);
       gmsh::option::setNumber("General.Terminal", 0);
-      gmsh::option::setNumber("General.Verbosity", 0);
+      // Errors only: they reach the log that guarded() reads.
+      gmsh::option::setNumber("General.Verbosity", 1);
+    });
+    guarded("setting options", [] {
       // Several 2D meshing threads made different meshes from run to run.
       gmsh::option::setNumber("General.NumThreads", 1);
       gmsh::option::setNumber("Mesh.MaxNumThreads1D", 1);
@@ -109,8 +160,8 @@ void GmshSession::set_transfinite_curve(int curve, int nodes, double progression
 
 void GmshSession::set_structured_quad_patch(int surface, const std::array<int, 4>& corners) {
   guarded("setTransfiniteSurface", [&] {
-    gmsh::model::geo::mesh::setTransfiniteSurface(
-        surface, "Left", std::vector<int>(corners.begin(), corners.end()));
+    gmsh::model::geo::mesh::setTransfiniteSurface(surface, "Left",
+                                                  std::vector<int>(corners.begin(), corners.end()));
     gmsh::model::geo::mesh::setRecombine(2, surface);
   });
 }

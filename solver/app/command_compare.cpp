@@ -4,6 +4,8 @@
 // with `plystrain run`).
 #include "commands.hpp"
 
+#include "interrupts.hpp"
+
 #include "plystrain/solver/case_reader.hpp"
 #include "plystrain/solver/case_variants.hpp"
 #include "plystrain/solver/comparison.hpp"
@@ -16,6 +18,42 @@
 #include <vector>
 
 namespace plystrain::cli {
+
+namespace {
+
+// Runs the case as written and each variant, each into its folder under
+// `out`; an interruption ends the comparison with the run it stopped, and
+// the comparison holds the runs so far.
+int compare_into(const CaseSpec& base, const std::vector<ResolvedCase>& variants,
+                 const SolveOptions& options, const std::filesystem::path& out,
+                 const std::filesystem::path& shown) {
+  int code = exit_done;
+  const auto run_one = [&](const CaseSpec& spec, const std::string& name) {
+    std::cout << "== " << name << "\n" << std::flush;
+    RunOptions run;
+    run.out = out / name;
+    run.threads = options.threads;
+    run.stop_requested = stop_signal_name;
+    run.progress = [](const std::string& line) { std::cout << "  " << line << "\n" << std::flush; };
+    RunOutcome outcome = run_case(spec, run);
+    std::cout << outcome.table << "\n";
+    code = worse_exit(code, run_exit_code(outcome.results));
+    return outcome.results;
+  };
+  const RunResults base_results = run_one(base, "base");
+  std::vector<NamedRun> runs;
+  for (std::size_t i = 0; i < variants.size() && code != exit_interrupted; ++i) {
+    runs.push_back({variants[i].name, run_one(variants[i].spec, variants[i].name)});
+  }
+  const Comparison comparison = compare_runs(base_results, runs);
+  write_comparison_files(out, comparison);
+  std::cout << comparison_text(comparison);
+  std::cout << "\nComparison in " << (shown / "comparison.txt").string()
+            << " (also comparison.json, comparison.csv)\n";
+  return code;
+}
+
+}  // namespace
 
 Command add_compare_command(CLI::App& app) {
   auto options = std::make_shared<SolveOptions>();
@@ -37,35 +75,11 @@ Command add_compare_command(CLI::App& app) {
               throw InputError(SourceLocation{base.source.string(), 0, 0}, "variant",
                                "compare needs at least one [[variant]] in the case");
             }
-            const std::filesystem::path out =
-                options->out.empty() ? base.report.out.value : std::filesystem::path(options->out);
-
-            const auto run_one = [&](const CaseSpec& spec, const std::string& name) {
-              std::cout << "== " << name << "\n" << std::flush;
-              RunOptions run;
-              run.out = out / name;
-              run.threads = options->threads;
-              run.progress = [](const std::string& line) {
-                std::cout << "  " << line << "\n" << std::flush;
-              };
-              RunOutcome outcome = run_case(spec, run);
-              std::cout << outcome.table << "\n";
-              return outcome.results;
-            };
-
-            const RunResults base_results = run_one(base, "base");
-            std::vector<NamedRun> runs;
-            bool all_completed = base_results.completed;
-            for (const ResolvedCase& variant : variants) {
-              runs.push_back({variant.name, run_one(variant.spec, variant.name)});
-              all_completed = all_completed && runs.back().results.completed;
-            }
-            const Comparison comparison = compare_runs(base_results, runs);
-            write_comparison_files(out, comparison);
-            std::cout << comparison_text(comparison);
-            std::cout << "\nComparison in " << (out / "comparison.txt").string()
-                      << " (also comparison.json, comparison.csv)\n";
-            return all_completed ? exit_done : exit_load_not_reached;
+            const OutputChoice output = output_choice(options->out, base);
+            const InterruptHandlers interrupts;
+            return run_into_output_folder(output, [&](const std::filesystem::path& out) {
+              return compare_into(base, variants, *options, out, output.folder);
+            });
           }};
 }
 

@@ -58,12 +58,11 @@ Command add_mesh_command(CLI::App& app) {
   CLI::App* command = app.add_subcommand(
       "mesh", "Mesh the case's cross-section; write mesh.msh and mesh.vtu and print quality");
   command->add_option("CASE", options->case_path, "The case file (TOML)")->required();
-  command->add_option("--out", options->out,
-                      "Output directory (default: the case's report.out)");
+  add_out_option(*command, options->out);
   return {command, [options] {
             const CaseSpec spec = read_case(options->case_path);
-            const std::filesystem::path out =
-                options->out.empty() ? spec.report.out.value : std::filesystem::path(options->out);
+            const OutputChoice output = output_choice(options->out, spec);
+            const std::filesystem::path& out = output.folder;
 
             mesh::GmshSession session;
             mesh::Mesh grid;
@@ -75,7 +74,7 @@ Command add_mesh_command(CLI::App& app) {
               throw input_error_from_mesh_error(error, spec);
             }
 
-            std::filesystem::create_directories(out);
+            prepare_output_folder(out, output.source);
             write_path_atomically(out / "mesh.msh", [&](const std::filesystem::path& temporary) {
               mesh::write_msh(session, temporary);
               return true;

@@ -6,16 +6,45 @@
 
 #include <exception>
 #include <iostream>
+#include <new>
 #include <string>
 #include <vector>
 
 namespace plystrain::cli {
 
-void add_solve_options(CLI::App& command, SolveOptions& options) {
-  command.add_option("CASE", options.case_path, "The case file (TOML)")->required();
-  command.add_option("--out", options.out, "Output directory (default: the case's report.out)");
-  command.add_option("--threads", options.threads, "Threads for assembly (default: all cores)")
-      ->check(CLI::NonNegativeNumber);
+namespace {
+
+int internal_error(const std::string& what) {
+  std::cerr << "plystrain: internal error: " << what
+            << "\nPlease report this together with the case file.\n";
+  return exit_internal_error;
+}
+
+}  // namespace
+
+int report_exception() {
+  // Whatever a command or a library throws ends here as a message and an
+  // exit code, never as an abort; libraries that throw something other than
+  // std::exception (Gmsh throws std::string) included.
+  try {
+    throw;
+  } catch (const InputError& error) {
+    std::cerr << error.what() << "\n";
+    return exit_bad_input;
+  } catch (const std::bad_alloc&) {
+    std::cerr << "plystrain: out of memory: the model does not fit into this machine's memory; "
+                 "coarser mesh sizes (mesh.size_near, mesh.size_far) or a narrower width need "
+                 "less\n";
+    return exit_internal_error;
+  } catch (const std::exception& error) {
+    return internal_error(error.what());
+  } catch (const std::string& message) {
+    return internal_error(message);
+  } catch (const char* message) {
+    return internal_error(message);
+  } catch (...) {
+    return internal_error("an exception of unknown type");
+  }
 }
 
 }  // namespace plystrain::cli
@@ -56,12 +85,7 @@ int main(int argc, char** argv) {
     }
     std::cerr << "plystrain: no command given (see plystrain --help)\n";
     return exit_bad_input;
-  } catch (const plystrain::InputError& error) {
-    std::cerr << error.what() << "\n";
-    return exit_bad_input;
-  } catch (const std::exception& error) {
-    std::cerr << "plystrain: internal error: " << error.what()
-              << "\nPlease report this together with the case file.\n";
-    return exit_internal_error;
+  } catch (...) {
+    return report_exception();
   }
 }

@@ -82,7 +82,7 @@ TEST_CASE("a case without a width is made wide enough to isolate its defects", "
   CHECK(spec.mesh.size_far.value == Approx(spec.geometry.width.value / 40.0));
 }
 
-TEST_CASE("a stated defect spacing sets the half-width; width and spacing together are refused",
+TEST_CASE("a stated defect spacing sets the half-width, and width and spacing together are refused",
           "[casefile][zone]") {
   std::string text = film_on_base(100.0, 0.1);
   text.insert(text.find("[[layer]]"), "defect_spacing = 300\n");

@@ -69,7 +69,7 @@ TEST_CASE("check refuses a malformed case with exit 2, naming file and line", "[
   CHECK(missing.exit_code == 2);
 }
 
-TEST_CASE("materials lists every entry of the library; one key shows its source", "[cli]") {
+TEST_CASE("materials lists every entry of the library, and one key shows its source", "[cli]") {
   const plystrain::MaterialLibrary library = plystrain::load_builtin_library();
   const auto listing = run_plystrain("materials");
   REQUIRE(listing.exit_code == 0);

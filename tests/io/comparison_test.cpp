@@ -96,7 +96,7 @@ TEST_CASE("equal crack margins go to the wider yield margin, then the lower peak
   CHECK_FALSE(comparison.entry("second", "absorber").best);
 }
 
-TEST_CASE("without limit data the lowest peak is best; a margin beats none", "[comparison]") {
+TEST_CASE("without limit data the lowest peak is best, and a margin beats none", "[comparison]") {
   // The substrate has no limits in sample_run: peaks 0.05 against 0.04.
   const RunResults base = completed_run(0.30, 0.2);
   RunResults softer = completed_run(0.30, 0.2);

@@ -36,7 +36,7 @@ TEST_CASE("crossings are interpolated between the increments around the limit",
   CHECK(*layers[0].yield_load_factor == Approx(0.16).epsilon(1e-12));
 }
 
-TEST_CASE("a limit not reached has no crossing; a peak exactly at onset has one",
+TEST_CASE("a limit not reached has no crossing, and a peak exactly at onset has one",
           "[limit_crossings]") {
   // Cracks at or above the onset (judge), so a peak equal to 0.2 crosses at
   // its own increment.

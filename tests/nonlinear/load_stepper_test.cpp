@@ -136,7 +136,7 @@ TEST_CASE("An exception in the system ends the path with the converged increment
   CHECK(result.load_factor == Approx(0.4));
 }
 
-TEST_CASE("The caller can stop the path; the step limit is honoured", "[load_stepper]") {
+TEST_CASE("The caller can stop the path, and the step limit is honoured", "[load_stepper]") {
   HardeningSpringChain chain(5, 1.0, 1.0, 2.0);
   DirectSparseSolver solver;
   LoadStepperOptions options;

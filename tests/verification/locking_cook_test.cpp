@@ -2,12 +2,14 @@
 // (0,0), (48,44), (48,60), (0,44), left edge clamped, a total vertical shear
 // force F spread uniformly over the right edge.
 //  - Linear plane stress, E = 1, nu = 1/3, F = 1: vertical displacement at
-//    the mid-point of the loaded edge (48, 52) is 23.96 (reference value as
-//    quoted in the verification plan; from memory in the literature).
+//    the loaded edge about 23.96, the fine-mesh value commonly quoted for
+//    this problem since Cook's paper, at the mid-point of the loaded edge
+//    (48, 52) (from memory).
 //  - Nearly incompressible plane strain, E = 240.565, nu = 0.4999, F = 100:
 //    the top corner (48, 60) moves about 8.0 in the linear problem and about
-//    6.9 with a neo-Hookean law (Elguedj et al., CMAME 197, 2732, 2008; de
-//    Souza Neto et al., IJSS 33, 3277, 1996).
+//    6.9 with a neo-Hookean law (from memory: the problem as posed by
+//    Elguedj et al., CMAME 197, 2732, 2008, and de Souza Neto et al., IJSS
+//    33, 3277, 1996; the two figures are recalled, not read from them).
 // Plane stress is modelled in plane strain with the equivalent constants
 // E' = E (1 + 2 nu)/(1 + nu)^2, nu' = nu/(1 + nu), which give the same 2D
 // equations (Timoshenko & Goodier, Theory of Elasticity, 1970, sec. 16).

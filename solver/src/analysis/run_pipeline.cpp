@@ -27,6 +27,19 @@ namespace {
 
 using Clock = std::chrono::steady_clock;
 
+// Thrown from the Newton iteration callback when a stop is asked for: the
+// load stepper ends the path there and keeps its converged increments.
+class StopRequested : public std::runtime_error {
+ public:
+  StopRequested() : std::runtime_error("the run was asked to stop") {}
+};
+
+using StopQuestion = std::function<std::string()>;
+
+std::string asked_to_stop(const StopQuestion& stop_requested) {
+  return stop_requested ? stop_requested() : std::string();
+}
+
 double seconds_since(Clock::time_point start) {
   return std::chrono::duration<double>(Clock::now() - start).count();
 }
@@ -237,7 +250,8 @@ ConformResult conform_result(const CaseSpec& spec, const solver::Model& model, c
 // The undisturbed state of load case `index` at `load_factor`, solved
 // without files; empty (and said in the log) when it cannot be had.
 std::optional<UndisturbedState> solve_undisturbed(const CaseSpec& spec, std::size_t index,
-                                                  double load_factor, int threads, RunLog& log) {
+                                                  double load_factor, int threads, RunLog& log,
+                                                  const StopQuestion& stop_requested) {
   const std::optional<CaseSpec> reference = undisturbed_case(spec, load_factor);
   if (!reference) {
     log.line("undisturbed state: not solved (a wrap that stopped early is not a scaled case)");
@@ -261,8 +275,14 @@ std::optional<UndisturbedState> solve_undisturbed(const CaseSpec& spec, std::siz
                                           ? solver::MatrixSymmetry::symmetric
                                           : solver::MatrixSymmetry::unsymmetric;
   load_case.stepper.keep_states = false;
+  solver::LoadStepperCallbacks callbacks;
+  callbacks.on_iteration = [&](int, const solver::NewtonIterationRecord&) {
+    if (!asked_to_stop(stop_requested).empty()) {
+      throw StopRequested();
+    }
+  };
   const solver::LoadPathResult path = solver::solve_load_path(
-      model, linear_solver, Eigen::VectorXd::Zero(model.size()), load_case.stepper);
+      model, linear_solver, Eigen::VectorXd::Zero(model.size()), load_case.stepper, callbacks);
   if (!path.completed()) {
     log.line("undisturbed state: stopped at load factor " + format("%.4f", path.load_factor) +
              ": " + path.reason);
@@ -279,6 +299,64 @@ std::optional<UndisturbedState> solve_undisturbed(const CaseSpec& spec, std::siz
            " unknowns, " + std::to_string(path.increments.size()) + " increments" +
            format(", %.2f s", seconds_since(start)));
   return state;
+}
+
+// The message of a run stopped by `stop` at `load_factor`.
+std::string interruption_text(const std::string& stop, double load_factor, int increments) {
+  return "interrupted by " + stop + ": stopped at load factor " + format("%.4f", load_factor) +
+         " after " + std::to_string(increments) + " converged increment" +
+         (increments == 1 ? "" : "s") + "; the last one is kept";
+}
+
+// A stop asked for after the load was applied, before `what`.
+template <typename Say>
+void stop_before(const std::string& what, const std::string& stop, RunResults& run, RunLog& log,
+                 const Say& say) {
+  run.completed = false;
+  run.interrupted_by = stop;
+  run.message = "interrupted by " + stop + " before " + what + " was done; the load factor " +
+                format("%.4f", run.load_reached) + " was reached";
+  log.line(run.message);
+  say(run.message);
+}
+
+// The convergence check of report.verify: the case again with both mesh
+// sizes halved and (stretch, bend) with the width doubled, each into its own
+// folder, and how far each layer's peak moved.
+template <typename Say>
+void check_convergence(const CaseSpec& spec, const RunOptions& options, RunResults& run,
+                       RunLog& log, const Say& say) {
+  const std::vector<ConvergenceRerunPlan> plans = convergence_reruns(spec);
+  std::vector<RunResults> reruns;
+  for (const ConvergenceRerunPlan& plan : plans) {
+    log.line("convergence check: " + plan.what + ", in " + plan.folder + "/");
+    say("convergence check: " + plan.what);
+    RunOptions rerun_options = options;
+    rerun_options.verify = false;
+    rerun_options.out = options.out / plan.folder;
+    rerun_options.progress = [&](const std::string& text) {
+      say("  " + plan.folder + ": " + text);
+    };
+    reruns.push_back(run_case(plan.spec, rerun_options).results);
+    if (const std::string stop = asked_to_stop(options.stop_requested); !stop.empty()) {
+      stop_before("the convergence check", stop, run, log, say);
+      return;
+    }
+  }
+  run.verification = compare_reruns(run, plans, reruns);
+  for (const ConvergenceRerun& rerun : run.verification->reruns) {
+    for (const PeakChange& change : rerun.layers) {
+      log.line("convergence check, " + rerun.what + ": layer " + change.layer +
+               format(" peak %.6g, rerun %.6g, change %.3g %%", change.peak, change.rerun_peak,
+                      100.0 * change.change));
+    }
+  }
+  log.line("convergence check: " + run.verification->verdict);
+  say("convergence check: " + run.verification->verdict);
+  if (!run.verification->converged) {
+    run.cautions.push_back("convergence check: " + run.verification->verdict +
+                           "; the peaks depend on that modelling choice");
+  }
 }
 
 }  // namespace
@@ -308,6 +386,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
       options.progress(text);
     }
   };
+  const auto stop_reason = [&] { return asked_to_stop(options.stop_requested); };
   std::filesystem::create_directories(options.out);
   RunLog log(options.out / "log.txt");
   const OutputUnit unit{unit_name(spec.units.value), micrometres_per(spec.units.value)};
@@ -388,6 +467,9 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
         }
       }
       log.line(line.str());
+      if (!stop_reason().empty()) {
+        throw StopRequested();
+      }
     };
     callbacks.on_failure = [&](const solver::FailedAttempt& failure) {
       std::ostringstream line;
@@ -425,7 +507,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
         }
       }
       log.flush();
-      return true;
+      return stop_reason().empty();
     };
 
     const Eigen::VectorXd q_start = Eigen::VectorXd::Zero(model.size());
@@ -433,6 +515,10 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
         solver::solve_load_path(model, linear_solver, q_start, load_case.stepper, callbacks);
     run.solver.increments += static_cast<int>(path.increments.size());
     run.solver.newton_iterations += path.newton_iterations;
+    if (!stop_reason().empty()) {
+      // A stop inside an attempt leaves its trial contact state behind.
+      model.begin_attempt();
+    }
     if (!path.increments.empty() && path.increments.back().negative_pivots.value_or(0) > 0) {
       const std::string warning = unstable_state_caution(prefix, *path.increments.back().negative_pivots);
       log.line(warning);
@@ -477,8 +563,11 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
     std::optional<UndisturbedState> undisturbed;
     if (spec.load.kind.value == LoadKind::conform && spec.defects.empty()) {
       undisturbed = UndisturbedState{points, false};
+    } else if (!stop_reason().empty()) {
+      log.line("undisturbed state: not solved, the run was asked to stop");
     } else {
-      undisturbed = solve_undisturbed(spec, index, path.load_factor, options.threads, log);
+      undisturbed = solve_undisturbed(spec, index, path.load_factor, options.threads, log,
+                                      options.stop_requested);
     }
     std::vector<LayerResult> layers =
         evaluate_layers(spec, points, undisturbed ? &*undisturbed : nullptr);
@@ -506,11 +595,15 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
       write_profiles_csv(options.out / name, sample_profiles(spec, points), unit);
     }
 
-    if (!path.completed()) {
+    const std::string stop = stop_reason();
+    if (!path.completed() || !stop.empty()) {
       run.completed = false;
       run.load_reached = path.load_factor;
-      run.message = prefix + "stopped at load factor " + format("%.4f", path.load_factor) +
-                    ": " + path.reason;
+      run.interrupted_by = stop;
+      run.message = stop.empty()
+                        ? prefix + "stopped at load factor " + format("%.4f", path.load_factor) +
+                              ": " + path.reason
+                        : prefix + interruption_text(stop, path.load_factor, run.solver.increments);
       log.line(run.message);
       say(run.message);
       break;
@@ -529,6 +622,10 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
     log.flush();
     for (LocalCellPlan& plan : plan_local_cells(spec_as_given, last_points, run.layers)) {
       const std::string label = "local " + std::to_string(plan.defect_index);
+      if (const std::string stop = stop_reason(); !stop.empty()) {
+        stop_before(label, stop, run, log, say);
+        break;
+      }
       const std::string state = format("major %.4g, minor %.4g", plan.major, plan.minor) + " at r = " +
                                 format("%.4g", plan.at[0]) + " um";
       log.line(label + ": defect " + std::to_string(plan.defect_index) + " in a " +
@@ -570,6 +667,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
       run.solver.cutbacks += cell.results.solver.cutbacks;
       if (!cell.results.completed) {
         run.completed = false;
+        run.interrupted_by = cell.results.interrupted_by;
         run.message = label + ": " + cell.results.message;
         log.line(run.message);
         break;
@@ -579,33 +677,7 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
   }
   if ((options.verify || spec_as_given.report.verify.value) && run.completed) {
     log.flush();
-    const std::vector<ConvergenceRerunPlan> plans = convergence_reruns(spec_as_given);
-    std::vector<RunResults> reruns;
-    for (const ConvergenceRerunPlan& plan : plans) {
-      log.line("convergence check: " + plan.what + ", in " + plan.folder + "/");
-      say("convergence check: " + plan.what);
-      RunOptions rerun_options = options;
-      rerun_options.verify = false;
-      rerun_options.out = options.out / plan.folder;
-      rerun_options.progress = [&](const std::string& text) {
-        say("  " + plan.folder + ": " + text);
-      };
-      reruns.push_back(run_case(plan.spec, rerun_options).results);
-    }
-    run.verification = compare_reruns(run, plans, reruns);
-    for (const ConvergenceRerun& rerun : run.verification->reruns) {
-      for (const PeakChange& change : rerun.layers) {
-        log.line("convergence check, " + rerun.what + ": layer " + change.layer +
-                 format(" peak %.6g, rerun %.6g, change %.3g %%", change.peak, change.rerun_peak,
-                        100.0 * change.change));
-      }
-    }
-    log.line("convergence check: " + run.verification->verdict);
-    say("convergence check: " + run.verification->verdict);
-    if (!run.verification->converged) {
-      run.cautions.push_back("convergence check: " + run.verification->verdict +
-                             "; the peaks depend on that modelling choice");
-    }
+    check_convergence(spec_as_given, options, run, log, say);
   }
   run.solver.seconds = seconds_since(start);
   log.line(format("finished in %.2f s", run.solver.seconds));

@@ -186,6 +186,22 @@ void check_hole_spelling(const Located<std::string>& kind, Shape shape, std::siz
   }
 }
 
+// An empty name would be the case's own folder, and the operating system
+// reads a name only up to a NUL character, so the run would go elsewhere.
+bool usable_folder_name(const Located<std::string>& out, Problems& problems) {
+  if (out.value.empty()) {
+    problems.add(out.where, "report.out", "expected the name of an output folder, found \"\"");
+    return false;
+  }
+  if (out.value.find('\0') != std::string::npos) {
+    problems.add(out.where, "report.out",
+                 "expected the name of an output folder, found a name with a NUL character "
+                 "(\\u0000) in it");
+    return false;
+  }
+  return true;
+}
+
 }  // namespace
 
 CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library) {
@@ -354,7 +370,7 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   spec.report.where = document.report.where;
   const Located<std::string> out = report.text("out");
   const std::filesystem::path case_folder = document.source.parent_path();
-  if (out.given) {
+  if (out.given && usable_folder_name(out, problems)) {
     spec.report.out = {std::filesystem::absolute(case_folder / out.value).lexically_normal(),
                        out.where, true};
   } else {

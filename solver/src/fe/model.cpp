@@ -1,5 +1,6 @@
 #include "model_impl.hpp"
 #include "plystrain/solver/quadrature.hpp"
+#include "plystrain/solver/thread_exceptions.hpp"
 
 #include <omp.h>
 
@@ -430,6 +431,7 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
   std::vector<CellMatrix> matrices(tangent ? residuals.size() : 0);
   std::vector<KernelOutcome> outcomes(residuals.size());
   int failed_cell = -1;
+  ThreadExceptions exceptions;
 #pragma omp parallel num_threads(threads())
   {
     const ScatterShare share{omp_get_thread_num(), omp_get_num_threads()};
@@ -449,11 +451,18 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
 #pragma omp for schedule(dynamic, 16)
       for (int c = start; c < end; ++c) {
         const std::size_t slot = static_cast<std::size_t>(c - start);
-        CellCoordinates X;
-        CellVector dofs;
-        gather_cell(c, z, X, dofs);
-        outcomes[slot] = cell_internal_forces(settings[static_cast<std::size_t>(c)], X, dofs,
-                                              residuals[slot], tangent ? &matrices[slot] : nullptr);
+        const bool done = exceptions.capture([&] {
+          CellCoordinates X;
+          CellVector dofs;
+          gather_cell(c, z, X, dofs);
+          outcomes[slot] =
+              cell_internal_forces(settings[static_cast<std::size_t>(c)], X, dofs, residuals[slot],
+                                   tangent ? &matrices[slot] : nullptr);
+        });
+        if (!done) {
+          // Every thread then leaves at this chunk; the exception is raised below.
+          outcomes[slot].status = KernelStatus::non_finite;
+        }
       }
       // Every thread reads the same outcomes after the barrier above, so all
       // leave the loop at the same chunk.
@@ -479,6 +488,7 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
 #pragma omp barrier
     }
   }
+  exceptions.rethrow_first();
   if (failed_cell >= 0) {
     return cell_failure(failed_cell, outcomes[static_cast<std::size_t>(failed_cell % chunk_size)]);
   }

@@ -2,6 +2,7 @@
 
 #include "model_impl.hpp"
 #include "plystrain/solver/quadrature.hpp"
+#include "plystrain/solver/thread_exceptions.hpp"
 
 #include <Eigen/Eigenvalues>
 #include <Eigen/QR>
@@ -42,6 +43,38 @@ PointResult derive_point(const Eigen::Matrix3d& F, const Eigen::Matrix3d& P) {
   return out;
 }
 
+namespace {
+
+// The states at one cell's points, into their slots of `results`.
+void evaluate_cell_points(const ModelImpl& impl, const Eigen::VectorXd& z, int c,
+                          KernelOutcome& outcome, PointResults& results) {
+  CellCoordinates X;
+  CellVector dofs;
+  impl.gather_cell(c, z, X, dofs);
+  std::array<PointState, max_cell_points> states;
+  const int points =
+      cell_point_states(impl.settings[static_cast<std::size_t>(c)], X, dofs, states, outcome);
+  if (outcome.status != KernelStatus::ok) {
+    return;
+  }
+  for (int p = 0; p < points; ++p) {
+    const PointState& s = states[static_cast<std::size_t>(p)];
+    PointResult r = derive_point(s.deformation_gradient, s.first_piola);
+    r.cell = c;
+    r.point = p;
+    r.region = impl.mesh.cells[static_cast<std::size_t>(c)].region;
+    r.position = s.position;
+    r.area_weight = s.area_weight;
+    r.volume_weight = s.volume_weight;
+    r.pressure = s.pressure;
+    results
+        .points[static_cast<std::size_t>(results.cell_offsets[static_cast<std::size_t>(c)] + p)] =
+        r;
+  }
+}
+
+}  // namespace
+
 PointResults evaluate_points(const Model& model, const Eigen::VectorXd& q, double load_factor) {
   const ModelImpl& impl = model.impl();
   PointResults results;
@@ -49,35 +82,20 @@ PointResults evaluate_points(const Model& model, const Eigen::VectorXd& q, doubl
   const int cells = impl.mesh.cell_count();
   results.cell_offsets.assign(static_cast<std::size_t>(cells) + 1, 0);
   for (int c = 0; c < cells; ++c) {
-    const int points = static_cast<int>(cell_rule(impl.settings[static_cast<std::size_t>(c)].type).size());
-    results.cell_offsets[static_cast<std::size_t>(c) + 1] = results.cell_offsets[static_cast<std::size_t>(c)] + points;
+    const int points =
+        static_cast<int>(cell_rule(impl.settings[static_cast<std::size_t>(c)].type).size());
+    results.cell_offsets[static_cast<std::size_t>(c) + 1] =
+        results.cell_offsets[static_cast<std::size_t>(c)] + points;
   }
   results.points.resize(static_cast<std::size_t>(results.cell_offsets.back()));
   std::vector<KernelOutcome> outcomes(static_cast<std::size_t>(cells));
+  ThreadExceptions exceptions;
 #pragma omp parallel for schedule(static) num_threads(impl.threads())
   for (int c = 0; c < cells; ++c) {
-    CellCoordinates X;
-    CellVector dofs;
-    impl.gather_cell(c, z, X, dofs);
-    std::array<PointState, max_cell_points> states;
-    KernelOutcome& outcome = outcomes[static_cast<std::size_t>(c)];
-    const int points = cell_point_states(impl.settings[static_cast<std::size_t>(c)], X, dofs, states, outcome);
-    if (outcome.status != KernelStatus::ok) {
-      continue;
-    }
-    for (int p = 0; p < points; ++p) {
-      const PointState& s = states[static_cast<std::size_t>(p)];
-      PointResult r = derive_point(s.deformation_gradient, s.first_piola);
-      r.cell = c;
-      r.point = p;
-      r.region = impl.mesh.cells[static_cast<std::size_t>(c)].region;
-      r.position = s.position;
-      r.area_weight = s.area_weight;
-      r.volume_weight = s.volume_weight;
-      r.pressure = s.pressure;
-      results.points[static_cast<std::size_t>(results.cell_offsets[static_cast<std::size_t>(c)] + p)] = r;
-    }
+    exceptions.capture(
+        [&] { evaluate_cell_points(impl, z, c, outcomes[static_cast<std::size_t>(c)], results); });
   }
+  exceptions.rethrow_first();
   for (int c = 0; c < cells; ++c) {
     const KernelOutcome& outcome = outcomes[static_cast<std::size_t>(c)];
     if (outcome.status != KernelStatus::ok) {

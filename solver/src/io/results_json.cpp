@@ -124,6 +124,7 @@ std::string results_json_text(const RunResults& run, const OutputUnit& unit) {
   out["completed"] = run.completed;
   out["load_reached"] = number(run.load_reached);
   out["message"] = run.message;
+  out["interrupted_by"] = run.interrupted_by.empty() ? Json(nullptr) : Json(run.interrupted_by);
   out["layers"] = layers_json(run.layers, unit);
   Json local = Json::array();
   for (const LocalCheck& check : run.local) {

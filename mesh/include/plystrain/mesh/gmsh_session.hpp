@@ -4,8 +4,10 @@
 //
 // The session initialises Gmsh quietly (no option files, no terminal output,
 // one meshing thread so that meshes are reproducible), restores the OpenMP
-// thread count that gmsh::initialize() resets, turns Gmsh's std::string
-// exceptions into MeshError and finalises Gmsh in its destructor.
+// thread count that gmsh::initialize() resets, turns Gmsh's errors into
+// MeshError (Gmsh logs them instead of throwing: a throw from inside one of
+// its parallel loops would abort the process) and finalises Gmsh in its
+// destructor.
 //
 // Geometry is built with Gmsh's built-in kernel in the (x, y) plane; the
 // mesher maps its (x, z) to Gmsh's (x, y).

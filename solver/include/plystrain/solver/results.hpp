@@ -156,6 +156,7 @@ struct RunResults {
   bool completed = false;
   double load_reached = 0.0;
   std::string message;    // why it stopped early; empty when completed
+  std::string interrupted_by;  // what stopped the run ("SIGINT", "SIGTERM"); empty if nothing did
   std::vector<LayerResult> layers;
   std::vector<LocalCheck> local;
   std::optional<ConformResult> conform;

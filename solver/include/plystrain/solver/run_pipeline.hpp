@@ -19,6 +19,12 @@ struct RunOptions {
   std::function<void(const std::string&)> progress;
   int threads = 0;  // OpenMP threads for assembly; 0 = the OpenMP default
   bool verify = false;  // as report.verify: rerun finer and wider, report how the peaks moved
+  // Asked after every Newton iteration and increment: the name of what asks
+  // the run to stop (e.g. "SIGINT"), or empty to go on. A stop keeps the last
+  // converged increment, skips what is left (the undisturbed state, local
+  // cells, the convergence check) and writes the results so far, with
+  // completed = false and interrupted_by set to the name.
+  std::function<std::string()> stop_requested;
 };
 
 struct RunOutcome {
@@ -28,7 +34,7 @@ struct RunOutcome {
 };
 
 // Throws InputError for a case that cannot be meshed or modelled; numerical
-// trouble is reported in the outcome (results.completed == false).
+// trouble and a stop are reported in the outcome (results.completed == false).
 [[nodiscard]] RunOutcome run_case(const CaseSpec& spec, const RunOptions& options);
 
 // A short hash of the case as run (the text of case.toml), for stamping outputs.

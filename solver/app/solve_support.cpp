@@ -1,0 +1,71 @@
+// What the commands that solve a case share: their options, how a run goes
+// into its output folder (output_folder.hpp), and its exit code.
+#include "commands.hpp"
+
+#include "plystrain/solver/input_error.hpp"
+
+#include <exception>
+#include <utility>
+
+namespace plystrain::cli {
+
+void add_out_option(CLI::App& command, std::string& out) {
+  command.add_option("--out", out, "Output directory (default: the case's report.out)")
+      ->check(CLI::Validator(
+          [](const std::string& value) {
+            return value.empty() ? std::string("expected the name of an output folder, found \"\"")
+                                 : std::string();
+          },
+          "FOLDER"));
+}
+
+void add_solve_options(CLI::App& command, SolveOptions& options) {
+  command.add_option("CASE", options.case_path, "The case file (TOML)")->required();
+  add_out_option(command, options.out);
+  command.add_option("--threads", options.threads, "Threads for assembly (default: all cores)")
+      ->check(CLI::NonNegativeNumber);
+}
+
+OutputChoice output_choice(const std::string& out_option, const CaseSpec& spec) {
+  if (!out_option.empty()) {
+    return {out_option, {SourceLocation{"command line", 0, 0}, "--out"}};
+  }
+  return {spec.report.out.value, {spec.report.out.where, "report.out"}};
+}
+
+int run_exit_code(const RunResults& results) {
+  if (!results.interrupted_by.empty()) {
+    return exit_interrupted;
+  }
+  return results.completed ? exit_done : exit_load_not_reached;
+}
+
+int worse_exit(int a, int b) {
+  const auto rank = [](int code) {
+    return code == exit_interrupted ? 2 : code == exit_load_not_reached ? 1 : 0;
+  };
+  return rank(a) >= rank(b) ? a : b;
+}
+
+int run_into_output_folder(const OutputChoice& output,
+                           const std::function<int(const std::filesystem::path&)>& work) {
+  StagedOutput staged(output.folder, output.source);
+  int code = exit_done;
+  try {
+    code = work(staged.path());
+  } catch (const InputError&) {
+    throw;  // nothing was solved: the folder keeps what it held
+  } catch (...) {
+    // A failed run keeps what it finished, as a run that stopped early does.
+    try {
+      staged.commit();
+    } catch (const std::exception&) {
+      // The error in flight says more; the files stay in the hidden folder.
+    }
+    throw;
+  }
+  staged.commit();
+  return code;
+}
+
+}  // namespace plystrain::cli
