@@ -1,5 +1,7 @@
 #include "plystrain/solver/key_table.hpp"
 
+#include "plystrain/solver/case_limits.hpp"
+
 #include <algorithm>
 #include <charconv>
 #include <sstream>
@@ -56,7 +58,7 @@ std::vector<KeyInfo> build_table() {
        .help = "length unit of every length in the file (converted to micrometres when read)"});
   add({.section = S::top, .name = "materials", .kind = V::paths,
        .fixed_default = CaseValue{std::vector<std::string>{}}, .default_text = "[]",
-       .unit = U::path, .settable = false,
+       .max_items = limits::material_files, .unit = U::path, .settable = false,
        .help = "extra material files, relative to the case file, merged over the built-in "
                "library (a later file wins)"});
 
@@ -180,7 +182,7 @@ std::vector<KeyInfo> build_table() {
                "narrows), `held` = no strain (plane strain; a wide plate bends so), a number = "
                "that nominal strain imposed (equal to `strain` for equibiaxial)"});
   add({.section = S::load, .name = "radius", .kind = V::lengths, .required = true,
-       .default_text = "required", .unit = U::length, .applies_when = {{"kind", {"bend"}}},
+       .default_text = "required", .max_items = limits::bend_radii, .unit = U::length, .applies_when = {{"kind", {"bend"}}},
        .help = "bending radius of the stack's neutral plane, or an array of radii run one "
                "after another (e.g. [5000, -5000]); positive: the top of the stack is on the "
                "convex side; |radius| must exceed the stack thickness"});
@@ -196,7 +198,7 @@ std::vector<KeyInfo> build_table() {
        .applies_when = {conform, {"surface", {"ellipsoid"}}},
        .help = "[in-plane, height] semi-axes of the ellipsoid"});
   add({.section = S::load, .name = "points", .kind = V::points, .required = true,
-       .default_text = "required", .unit = U::length,
+       .default_text = "required", .max_items = limits::profile_points, .unit = U::length,
        .applies_when = {conform, {"surface", {"profile"}}},
        .help = "surface height as [r, z] pairs: at least two, r starting at 0 and "
                "increasing, z not increasing"});
@@ -289,28 +291,32 @@ std::vector<KeyInfo> build_table() {
        .help = "unique name of the variant, [a-z0-9-]+"});
   add({.section = S::variant, .name = "remove", .kind = V::names,
        .fixed_default = CaseValue{std::vector<std::string>{}}, .default_text = "[]",
-       .settable = false,
+       .max_items = limits::layers, .settable = false,
        .help = "layers left out; a defect in a removed layer, and a delamination whose "
                "interface loses either face, is left out with it"});
   add({.section = S::variant, .name = "set", .kind = V::table, .default_text = "{}",
-       .settable = false,
+       .max_items = limits::changes_per_variant, .settable = false,
        .help = "changes as `\"path\" = value`, applied before `remove`; paths: "
                "`layer.<name>.<key>`, `defect.<index from 1>.<key>`, `geometry.<key>`, "
-               "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`"});
+               "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`. A path must name a key "
+               "(a nested table of no key is an error) of a layer or defect the variant "
+               "keeps"});
 
   // [sweep]
   add({.section = S::sweep, .name = "parameter", .kind = V::text, .required = true,
        .default_text = "required", .settable = false,
        .help = "the dotted path to vary, as in a variant's `set`"});
   add({.section = S::sweep, .name = "values", .kind = V::values,
-       .default_text = "required unless `from`, `to`, `count`", .settable = false,
+       .default_text = "required unless `from`, `to`, `count`",
+       .max_items = limits::sweep_values, .settable = false,
        .help = "the values, each checked like the key it sets"});
   add({.section = S::sweep, .name = "from", .kind = V::number, .default_text = "none",
        .settable = false, .help = "first value of a linear range (with `to` and `count`)"});
   add({.section = S::sweep, .name = "to", .kind = V::number, .default_text = "none",
        .settable = false, .help = "last value of a linear range"});
   add({.section = S::sweep, .name = "count", .kind = V::integer, .default_text = "none",
-       .min = at_least(2), .max = at_most(1000), .unit = U::count, .settable = false,
+       .min = at_least(2), .max = at_most(static_cast<double>(limits::sweep_values)),
+       .unit = U::count, .settable = false,
        .help = "number of values of a linear range, ends included"});
   return keys;
 }

@@ -1,0 +1,68 @@
+// The documented limits of a case file (docs/case-format-reference.md,
+// "Limits"). Each keeps a hostile or mistaken file from crashing, hanging or
+// flooding the reader, or from passing `check` with a value the mesher or
+// the solver cannot honour. The reader refuses a case past any of them with
+// file:line:column, the key and the limit.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace plystrain::limits {
+
+// The file.
+inline constexpr std::uintmax_t case_file_bytes = 1024 * 1024;
+// Levels of tables, dotted-key parts, arrays and inline tables from the top
+// of the file to the deepest value. The deepest case the format needs is a
+// nested variant `set` (five levels).
+inline constexpr int nesting_depth = 16;
+
+// Text.
+inline constexpr std::size_t name_characters = 64;    // layer and variant names
+inline constexpr std::size_t text_characters = 1000;  // any other string
+
+// Counts.
+inline constexpr std::size_t layers = 50;
+inline constexpr std::size_t defects = 50;
+inline constexpr std::size_t variants = 100;
+inline constexpr std::size_t changes_per_variant = 100;
+inline constexpr std::size_t sweep_values = 1000;
+inline constexpr std::size_t bend_radii = 20;          // each is a solve of its own
+inline constexpr std::size_t profile_points = 10000;
+inline constexpr std::size_t material_files = 20;
+
+// Lengths, after conversion to micrometres: no length is larger than
+// 10 m, and none but zero is smaller than 0.1 nm (an atom).
+inline constexpr double largest_length_um = 1e7;
+inline constexpr double smallest_length_um = 1e-4;
+
+// The smallest feature the mesher is asked to resolve (a layer, a defect, a
+// taper, a recess or what is left under it, the gap between two defect
+// edges) as a share of the model's extent (the larger of the modelled span
+// and the stack thickness). Past it the cells along a thin film are more
+// than a million times longer than thick.
+inline constexpr double smallest_feature_ratio = 1e-6;
+
+// The mesh the case asks for, estimated from the stack and the mesh sizes
+// before meshing: about 8 million unknowns with quadratic cells.
+inline constexpr double mesh_cells = 1e6;
+
+// The averaging radius, against the thinnest layer and the smallest defect:
+// a disc wider than the film it averages in, or than the defect it looks
+// at, averages the concentration away.
+inline constexpr double averaging_radius_per_thinnest_layer = 1.0;
+inline constexpr double averaging_radius_per_defect_size = 0.5;
+
+// One line of the reference's "Limits" table.
+struct LimitRow {
+  std::string what;
+  std::string limit;
+  std::string why;
+};
+
+// Every limit above, in the order the reference lists them.
+[[nodiscard]] std::vector<LimitRow> limit_rows();
+
+}  // namespace plystrain::limits
