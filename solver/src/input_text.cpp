@@ -126,9 +126,13 @@ std::size_t character_count(std::string_view text) {
   return count;
 }
 
-std::string echoed(std::string_view text) { return echo(text, false); }
+std::string echoed(std::string_view text) {
+  return echo(text, false);
+}
 
-std::string quoted_echo(std::string_view text) { return "\"" + echo(text, true) + "\""; }
+std::string quoted_echo(std::string_view text) {
+  return "\"" + echo(text, true) + "\"";
+}
 
 std::string grouped_count(std::size_t count) {
   std::string digits = std::to_string(count);

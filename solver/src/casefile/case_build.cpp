@@ -239,8 +239,7 @@ void check_length_ranges(const CaseDocument& document, double micrometres, Lengt
         continue;
       }
       for (const double number : length_numbers(entry.value)) {
-        const std::string problem =
-            length_range_problem(number, number * micrometres, unit, *key);
+        const std::string problem = length_range_problem(number, number * micrometres, unit, *key);
         if (!problem.empty()) {
           problems.add(entry.where, label.empty() ? name : label + "." + name, problem);
           break;

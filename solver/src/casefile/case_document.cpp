@@ -186,8 +186,10 @@ std::string check_value(const CaseValue& value, const KeyInfo& key) {
       case ValueKind::choice:
       case ValueKind::choice_or_number:
         return key.allows_choice(*text) ? "" : choice_message(key, *text);
-      case ValueKind::name: return text_problem_of(*text, true, "a name");
-      default: return text_problem_of(*text, false, "a string");
+      case ValueKind::name:
+        return text_problem_of(*text, true, "a name");
+      default:
+        return text_problem_of(*text, false, "a string");
     }
   }
   if (const auto* texts = std::get_if<std::vector<std::string>>(&value)) {

@@ -8,7 +8,9 @@ namespace plystrain::limits {
 
 namespace {
 
-std::string count(std::size_t value) { return grouped_count(value); }
+std::string count(std::size_t value) {
+  return grouped_count(value);
+}
 
 std::string number(double value) {
   char buffer[32];
@@ -35,7 +37,8 @@ std::vector<LimitRow> limit_rows() {
       {"`[[variant]]` tables", count(variants), "`compare` solves every variant in full"},
       {"changes in one variant's `set`", count(changes_per_variant),
        "a variant is a few changes to the base case"},
-      {"sweep values (`values`, or `count`)", count(sweep_values), "`run` solves every value in full"},
+      {"sweep values (`values`, or `count`)", count(sweep_values),
+       "`run` solves every value in full"},
       {"bend radii", count(bend_radii), "each radius is a solve of its own"},
       {"profile points", count(profile_points), "finer than any measured profile needs"},
       {"material files", count(material_files), "each file is read and merged in turn"},

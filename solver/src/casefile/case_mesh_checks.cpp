@@ -230,10 +230,10 @@ class MeshabilityChecker {
     if (!radius.given || spec_.layers.empty()) {
       return;  // the default is chosen within both limits
     }
-    const auto thinnest = std::min_element(
-        spec_.layers.begin(), spec_.layers.end(), [](const LayerSpec& a, const LayerSpec& b) {
-          return a.thickness.value < b.thickness.value;
-        });
+    const auto thinnest = std::min_element(spec_.layers.begin(), spec_.layers.end(),
+                                           [](const LayerSpec& a, const LayerSpec& b) {
+                                             return a.thickness.value < b.thickness.value;
+                                           });
     const double by_layer = limits::averaging_radius_per_thinnest_layer * thinnest->thickness.value;
     if (radius.value > by_layer) {
       problems_.add(radius.where, "report.averaging_radius",
@@ -249,8 +249,8 @@ class MeshabilityChecker {
           limits::averaging_radius_per_defect_size * spec_.defects[i].size.value;
       if (radius.value > by_defect) {
         problems_.add(radius.where, "report.averaging_radius",
-                      "expected at most half the size of " + CaseDocument::defect_label(i) +
-                          " (" + shown(by_defect) + "), found " + shown(radius.value) +
+                      "expected at most half the size of " + CaseDocument::defect_label(i) + " (" +
+                          shown(by_defect) + "), found " + shown(radius.value) +
                           ": a disc wider than the defect averages it away");
         return;
       }

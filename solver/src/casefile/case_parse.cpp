@@ -23,7 +23,8 @@ SourceLocation location_of(const toml::source_region& region, const std::filesys
 // "a string \"abc\"", "an integer 3", "a table", ...
 std::string describe(const toml::node& node) {
   switch (node.type()) {
-    case toml::node_type::string: return "the string " + quoted_echo(node.as_string()->get());
+    case toml::node_type::string:
+      return "the string " + quoted_echo(node.as_string()->get());
     case toml::node_type::integer: return "the integer " + std::to_string(node.as_integer()->get());
     case toml::node_type::floating_point: return "the number " + float_text(node.as_floating_point()->get());
     case toml::node_type::boolean: return node.as_boolean()->get() ? "true" : "false";
@@ -186,9 +187,8 @@ class DocumentParser {
       // Only the first are read: checking the rest would take time in
       // proportion to a flood of them.
       problems_.add(location_of(array->get(most)->source(), file_), name,
-                    "expected at most " + grouped_count(most) + " [[" + name +
-                        "]] tables, found " + grouped_count(array->size()) +
-                        " (this is the first past the limit)");
+                    "expected at most " + grouped_count(most) + " [[" + name + "]] tables, found " +
+                        grouped_count(array->size()) + " (this is the first past the limit)");
     }
     for (std::size_t i = 0; i < std::min(array->size(), most); ++i) {
       const toml::table& table = *array->get(i)->as_table();
@@ -474,8 +474,8 @@ class DocumentParser {
       return;
     }
     sweep.parameter = {parameter->as_string()->get(), parameter_where, true};
-    std::string problem =
-        check_value(CaseValue{sweep.parameter.value}, *find_case_key(CaseSection::sweep, "parameter"));
+    std::string problem = check_value(CaseValue{sweep.parameter.value},
+                                      *find_case_key(CaseSection::sweep, "parameter"));
     if (!problem.empty()) {
       problems_.add(parameter_where, "sweep.parameter", problem);
       return;

@@ -40,10 +40,13 @@ std::optional<std::pair<std::size_t, std::string>> encoding_problem(std::string_
     }
     const Utf8Character character = decode_utf8(text, at);
     switch (character.status) {
-      case Status::ok: break;
-      case Status::bad_byte: return std::pair{at, std::string("the file is not valid UTF-8 text")};
+      case Status::ok:
+        break;
+      case Status::bad_byte:
+        return std::pair{at, std::string("the file is not valid UTF-8 text")};
       case Status::cut_off:
-        return std::pair{at, std::string("the file is not valid UTF-8 text (a character is cut off)")};
+        return std::pair{at,
+                         std::string("the file is not valid UTF-8 text (a character is cut off)")};
       case Status::invalid_code:
         return std::pair{at,
                          std::string("the file is not valid UTF-8 text (an invalid character)")};

@@ -167,11 +167,11 @@ std::vector<ResolvedCase> resolve_sweep(const CaseSpec& base) {
   for (std::size_t i = 0; i < base.sweep->values.size(); ++i) {
     const SetChange& change = base.sweep->values[i];
     const std::string name = "sweep-" + std::to_string(i + 1);
-    resolved.push_back(ResolvedCase{
-        name, change.path + " = " + case_value_text(change.value),
-        apply(base, {change}, {}, name,
-              "sweep value " + std::to_string(i + 1) + " (" + echoed(change.path) + " = " +
-                  echoed(case_value_text(change.value)) + ")")});
+    resolved.push_back(
+        ResolvedCase{name, change.path + " = " + case_value_text(change.value),
+                     apply(base, {change}, {}, name,
+                           "sweep value " + std::to_string(i + 1) + " (" + echoed(change.path) +
+                               " = " + echoed(case_value_text(change.value)) + ")")});
   }
   return resolved;
 }

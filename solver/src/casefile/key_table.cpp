@@ -56,9 +56,14 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::top, .name = "units", .kind = V::choice, .fixed_default = CaseValue{std::string{"um"}},
        .default_text = "\"um\"", .choices = plain({"nm", "um", "mm", "m"}), .settable = false,
        .help = "length unit of every length in the file (converted to micrometres when read)"});
-  add({.section = S::top, .name = "materials", .kind = V::paths,
-       .fixed_default = CaseValue{std::vector<std::string>{}}, .default_text = "[]",
-       .max_items = limits::material_files, .unit = U::path, .settable = false,
+  add({.section = S::top,
+       .name = "materials",
+       .kind = V::paths,
+       .fixed_default = CaseValue{std::vector<std::string>{}},
+       .default_text = "[]",
+       .max_items = limits::material_files,
+       .unit = U::path,
+       .settable = false,
        .help = "extra material files, relative to the case file, merged over the built-in "
                "library (a later file wins)"});
 
@@ -181,8 +186,14 @@ std::vector<KeyInfo> build_table() {
        .help = "the third direction: `free` = no net force across it (a stretched strip "
                "narrows), `held` = no strain (plane strain; a wide plate bends so), a number = "
                "that nominal strain imposed (equal to `strain` for equibiaxial)"});
-  add({.section = S::load, .name = "radius", .kind = V::lengths, .required = true,
-       .default_text = "required", .max_items = limits::bend_radii, .unit = U::length, .applies_when = {{"kind", {"bend"}}},
+  add({.section = S::load,
+       .name = "radius",
+       .kind = V::lengths,
+       .required = true,
+       .default_text = "required",
+       .max_items = limits::bend_radii,
+       .unit = U::length,
+       .applies_when = {{"kind", {"bend"}}},
        .help = "bending radius of the stack's neutral plane, or an array of radii run one "
                "after another (e.g. [5000, -5000]); positive: the top of the stack is on the "
                "convex side; |radius| must exceed the stack thickness"});
@@ -197,8 +208,13 @@ std::vector<KeyInfo> build_table() {
        .default_text = "required", .min = above(0), .unit = U::length,
        .applies_when = {conform, {"surface", {"ellipsoid"}}},
        .help = "[in-plane, height] semi-axes of the ellipsoid"});
-  add({.section = S::load, .name = "points", .kind = V::points, .required = true,
-       .default_text = "required", .max_items = limits::profile_points, .unit = U::length,
+  add({.section = S::load,
+       .name = "points",
+       .kind = V::points,
+       .required = true,
+       .default_text = "required",
+       .max_items = limits::profile_points,
+       .unit = U::length,
        .applies_when = {conform, {"surface", {"profile"}}},
        .help = "surface height as [r, z] pairs: at least two, r starting at 0 and "
                "increasing, z not increasing"});
@@ -289,13 +305,21 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::variant, .name = "name", .kind = V::name, .required = true,
        .default_text = "required", .settable = false,
        .help = "unique name of the variant, [a-z0-9-]+"});
-  add({.section = S::variant, .name = "remove", .kind = V::names,
-       .fixed_default = CaseValue{std::vector<std::string>{}}, .default_text = "[]",
-       .max_items = limits::layers, .settable = false,
+  add({.section = S::variant,
+       .name = "remove",
+       .kind = V::names,
+       .fixed_default = CaseValue{std::vector<std::string>{}},
+       .default_text = "[]",
+       .max_items = limits::layers,
+       .settable = false,
        .help = "layers left out; a defect in a removed layer, and a delamination whose "
                "interface loses either face, is left out with it"});
-  add({.section = S::variant, .name = "set", .kind = V::table, .default_text = "{}",
-       .max_items = limits::changes_per_variant, .settable = false,
+  add({.section = S::variant,
+       .name = "set",
+       .kind = V::table,
+       .default_text = "{}",
+       .max_items = limits::changes_per_variant,
+       .settable = false,
        .help = "changes as `\"path\" = value`, applied before `remove`; paths: "
                "`layer.<name>.<key>`, `defect.<index from 1>.<key>`, `geometry.<key>`, "
                "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`. A path must name a key "
@@ -306,17 +330,25 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::sweep, .name = "parameter", .kind = V::text, .required = true,
        .default_text = "required", .settable = false,
        .help = "the dotted path to vary, as in a variant's `set`"});
-  add({.section = S::sweep, .name = "values", .kind = V::values,
+  add({.section = S::sweep,
+       .name = "values",
+       .kind = V::values,
        .default_text = "required unless `from`, `to`, `count`",
-       .max_items = limits::sweep_values, .settable = false,
+       .max_items = limits::sweep_values,
+       .settable = false,
        .help = "the values, each checked like the key it sets"});
   add({.section = S::sweep, .name = "from", .kind = V::number, .default_text = "none",
        .settable = false, .help = "first value of a linear range (with `to` and `count`)"});
   add({.section = S::sweep, .name = "to", .kind = V::number, .default_text = "none",
        .settable = false, .help = "last value of a linear range"});
-  add({.section = S::sweep, .name = "count", .kind = V::integer, .default_text = "none",
-       .min = at_least(2), .max = at_most(static_cast<double>(limits::sweep_values)),
-       .unit = U::count, .settable = false,
+  add({.section = S::sweep,
+       .name = "count",
+       .kind = V::integer,
+       .default_text = "none",
+       .min = at_least(2),
+       .max = at_most(static_cast<double>(limits::sweep_values)),
+       .unit = U::count,
+       .settable = false,
        .help = "number of values of a linear range, ends included"});
   return keys;
 }

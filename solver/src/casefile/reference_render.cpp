@@ -65,8 +65,7 @@ void render_limits(std::ostringstream& page) {
        << "| what | limit | why |\n"
        << "|---|---|---|\n";
   for (const limits::LimitRow& row : limits::limit_rows()) {
-    page << "| " << cell(row.what) << " | " << cell(row.limit) << " | " << cell(row.why)
-         << " |\n";
+    page << "| " << cell(row.what) << " | " << cell(row.limit) << " | " << cell(row.why) << " |\n";
   }
   page << "\n";
 }
@@ -84,8 +83,8 @@ void render_section(std::ostringstream& page, CaseSection section, std::string_v
       continue;
     }
     page << "| `" << key.name << "` | " << cell(key.type_text()) << " | "
-         << cell(key.required ? "required" : key.default_text) << " | " << unit_text(key)
-         << " | " << cell(key.applies_text()) << " | " << (key.settable ? "yes" : "no") << " | "
+         << cell(key.required ? "required" : key.default_text) << " | " << unit_text(key) << " | "
+         << cell(key.applies_text()) << " | " << (key.settable ? "yes" : "no") << " | "
          << cell(std::string(key.help) + "." + choice_notes(key) + item_note(key)) << " |\n";
   }
   page << "\n";

@@ -29,7 +29,7 @@ inline constexpr std::size_t defects = 50;
 inline constexpr std::size_t variants = 100;
 inline constexpr std::size_t changes_per_variant = 100;
 inline constexpr std::size_t sweep_values = 1000;
-inline constexpr std::size_t bend_radii = 20;          // each is a solve of its own
+inline constexpr std::size_t bend_radii = 20;  // each is a solve of its own
 inline constexpr std::size_t profile_points = 10000;
 inline constexpr std::size_t material_files = 20;
 
