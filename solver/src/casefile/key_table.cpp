@@ -282,10 +282,14 @@ std::vector<KeyInfo> build_table() {
                "name without extension, or the folder name for a file called case.toml. "
                "Variants and sweep runs write into a sub-directory named after them"});
   add({.section = S::report, .name = "averaging_radius", .kind = V::length,
-       .default_text = "half the thinnest layer", .min = at_least(0), .unit = U::length,
+       .default_text = "half the thinnest layer, at most half the smallest defect",
+       .min = at_least(0), .unit = U::length,
        .help = "strain is averaged over a disc of this radius (in the cross-section, within "
                "the same layer) before its peak is taken, so that a reported peak converges "
-               "under mesh refinement; 0 reports the raw integration-point peak"});
+               "under mesh refinement; 0 reports the raw integration-point peak. At most the "
+               "thickness of the thinnest layer and half the size of the smallest defect: a "
+               "wider disc averages the concentration away. Where the raw peak would give "
+               "another verdict, the run says so"});
   add({.section = S::report, .name = "fields", .kind = V::boolean,
        .fixed_default = CaseValue{true}, .default_text = "true",
        .help = "write ParaView files (a .vtu per converged increment and one .pvd)"});
