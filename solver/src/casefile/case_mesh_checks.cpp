@@ -48,6 +48,10 @@ class MeshabilityChecker {
     check_averaging_radius();
   }
 
+  [[nodiscard]] double estimated_cells() const {
+    return columns_along(column_cuts()) * rows_through();
+  }
+
  private:
   const CaseSpec& spec_;
   Problems& problems_;
@@ -278,3 +282,12 @@ void check_mesher_accepts(const CaseSpec& spec, Problems& problems) {
 }
 
 }  // namespace plystrain::casefile
+
+namespace plystrain {
+
+double estimated_mesh_cells(const CaseSpec& spec) {
+  casefile::Problems unused;
+  return casefile::MeshabilityChecker(spec, unused).estimated_cells();
+}
+
+}  // namespace plystrain

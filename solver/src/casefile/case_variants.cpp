@@ -68,21 +68,20 @@ bool loses_defect(const Table& defect, const std::vector<Table>& layers,
 void check_changes_kept(
     const CaseDocument& document,
     const std::vector<std::pair<const SetChange*, casefile::ChangeTarget>>& targets,
-    const std::set<std::string>& removed, const std::string& context) {
+    const std::set<std::string>& removed, const std::string& set_path) {
   casefile::Problems problems;
   for (const auto& [change, target] : targets) {
+    const std::string key = set_path + "." + echoed(change->path);
     if (target.section == CaseSection::layer &&
         removed.count(name_of(document.layers[target.index])) > 0) {
-      problems.add(change->where, context,
-                   "path " + quoted_echo(change->path) +
-                       ": expected a layer the variant keeps, found \"" +
+      problems.add(change->where, key,
+                   "expected a layer the variant keeps, found \"" +
                        name_of(document.layers[target.index]) + "\", which it removes");
     } else if (target.section == CaseSection::defect &&
                loses_defect(document.defects[target.index], document.layers, removed)) {
-      problems.add(change->where, context,
-                   "path " + quoted_echo(change->path) +
-                       ": expected a defect the variant keeps, found one that goes with the "
-                       "layer it removes");
+      problems.add(change->where, key,
+                   "expected a defect the variant keeps, found one that goes with a layer it "
+                   "removes");
     }
   }
   problems.throw_if_any();
@@ -115,7 +114,7 @@ CaseSpec apply(const CaseSpec& base, const std::vector<SetChange>& changes,
   for (const Located<std::string>& name : remove) {
     removed.insert(name.value);
   }
-  check_changes_kept(document, targets, removed, context);
+  check_changes_kept(document, targets, removed, "variant." + run_name + ".set");
   std::erase_if(document.defects, [&](const Table& defect) {
     return loses_defect(defect, document.layers, removed);
   });
