@@ -19,7 +19,9 @@ using namespace plystrain;
 namespace {
 
 // The minimal case with `extra` appended (tables after [load]).
-std::string with(const std::string& extra) { return test::minimal_case() + extra; }
+std::string with(const std::string& extra) {
+  return test::minimal_case() + extra;
+}
 
 // Whether any line of `text` holds a control character.
 bool shows_control_characters(const std::string& text) {
@@ -74,8 +76,10 @@ TEST_CASE("a flood of variants is refused at the first past the limit", "[casefi
   CHECK(error.problems().front().key_path == "variant");
   // Line of the 101st [[variant]]: 22 lines of the case, then 3 per variant.
   CHECK(error.problems().front().where.line == 22 + 3 * 100 + 1);
-  CHECK_THAT(error.what(), Catch::Matchers::Contains("at most 100 [[variant]] tables, found 30,000"));
-  CHECK_NOTHROW(read_case_text(with(variants(limits::variants)), "enough.toml", test::test_library()));
+  CHECK_THAT(error.what(),
+             Catch::Matchers::Contains("at most 100 [[variant]] tables, found 30,000"));
+  CHECK_NOTHROW(
+      read_case_text(with(variants(limits::variants)), "enough.toml", test::test_library()));
 }
 
 TEST_CASE("a sweep of 100,000 values is refused without checking each", "[casefile][limits]") {
@@ -101,9 +105,9 @@ TEST_CASE("a thousand wrong values give five errors and a count", "[casefile][li
 TEST_CASE("many problems of different kinds list twenty and count the rest", "[casefile][limits]") {
   std::string text = test::minimal_case();
   for (int i = 0; i < 30; ++i) {
-    text.insert(text.find("[geometry]"), "unknown_" + std::string(1, static_cast<char>('a' + i % 26)) +
-                                             std::string(static_cast<std::size_t>(i / 26 + 1), 'q') +
-                                             " = 1\n");
+    text.insert(text.find("[geometry]"),
+                "unknown_" + std::string(1, static_cast<char>('a' + i % 26)) +
+                    std::string(static_cast<std::size_t>(i / 26 + 1), 'q') + " = 1\n");
   }
   const InputError error = test::input_error_of_text(text, "kinds.toml");
   INFO(error.what());
@@ -114,7 +118,8 @@ TEST_CASE("many problems of different kinds list twenty and count the rest", "[c
 
 TEST_CASE("a huge key is echoed once, shortened", "[casefile][limits]") {
   const std::string key(500000, 'k');
-  const InputError error = test::input_error_of_text(with("\n[mesh]\n" + key + " = 1\n"), "key.toml");
+  const InputError error =
+      test::input_error_of_text(with("\n[mesh]\n" + key + " = 1\n"), "key.toml");
   const std::string message = error.what();
   CHECK(message.size() < 600);
   CHECK_THAT(message, Catch::Matchers::StartsWith("key.toml:24:1: mesh."));
@@ -122,7 +127,8 @@ TEST_CASE("a huge key is echoed once, shortened", "[casefile][limits]") {
 }
 
 TEST_CASE("a file past 1 MiB is refused where the limit is passed", "[casefile][limits]") {
-  const std::string text = with("\ntitle_padding = \"" + std::string(limits::case_file_bytes, 'x') + "\"\n");
+  const std::string text =
+      with("\ntitle_padding = \"" + std::string(limits::case_file_bytes, 'x') + "\"\n");
   const InputError error = test::input_error_of_text(text, "big.toml");
   REQUIRE(error.problems().size() == 1);
   CHECK(error.problems().front().where.line == 23);
@@ -138,8 +144,8 @@ TEST_CASE("nesting is limited before the TOML parser sees it", "[casefile][limit
     return key;
   };
   for (const std::string& deep :
-       {deep_key(50000) + " = 1", "[" + deep_key(17) + "]", "x = " + std::string(17, '[') + std::string(17, ']'),
-        "x = " + repeated("{a=", 1000)}) {
+       {deep_key(50000) + " = 1", "[" + deep_key(17) + "]",
+        "x = " + std::string(17, '[') + std::string(17, ']'), "x = " + repeated("{a=", 1000)}) {
     const InputError error = test::input_error_of_text(with("\n" + deep + "\n"), "deep.toml");
     INFO(deep.substr(0, 40));
     REQUIRE(error.problems().size() == 1);
@@ -150,7 +156,8 @@ TEST_CASE("nesting is limited before the TOML parser sees it", "[casefile][limit
   // and comments with brackets, and a profile's points, read as before.
   const std::string nested = with(
       "\n[[variant]]  # [[[[[[[[[[[[[[[[[[\nname = \"v\"\n"
-      "set = { layer = { film = { thickness = 0.2 } }, title = \"[[[[{{{{.a.a.a.a.a.a.a.a.a.a.a.a.a.a.a.a.a\" }\n");
+      "set = { layer = { film = { thickness = 0.2 } }, title = "
+      "\"[[[[{{{{.a.a.a.a.a.a.a.a.a.a.a.a.a.a.a.a.a\" }\n");
   const CaseSpec spec = read_case_text(nested, "nested.toml", test::test_library());
   REQUIRE(spec.variants.size() == 1);
   CHECK(spec.variants.front().set.size() == 2);
@@ -161,12 +168,13 @@ TEST_CASE("names and strings have lengths and no control characters", "[casefile
   text.replace(text.find("\"film\""), 6, "\"" + std::string(limits::name_characters, 'f') + "\"");
   CHECK_NOTHROW(read_case_text(text, "name.toml", test::test_library()));
   text.replace(text.find("\"fff"), limits::name_characters + 2, "\"" + std::string(65, 'f') + "\"");
-  CHECK_THAT(test::input_error_of_text(text).what(), Catch::Matchers::Contains("at most 64 characters"));
+  CHECK_THAT(test::input_error_of_text(text).what(),
+             Catch::Matchers::Contains("at most 64 characters"));
 
   for (const char* title : {"\"bell\\u0007\"", "\"\\u001b[2J\"", "\"nul\\u0000cut\"",
-                                   "\"\\u202Ereversed\"", "\"\\u0085\""}) {
-    const InputError error =
-        test::input_error_of_text(with("").replace(0, 10, std::string("format = 1\ntitle = ") + title + "\n"));
+                            "\"\\u202Ereversed\"", "\"\\u0085\""}) {
+    const InputError error = test::input_error_of_text(
+        with("").replace(0, 10, std::string("format = 1\ntitle = ") + title + "\n"));
     const std::string message = error.what();
     INFO(message);
     CHECK(error.problems().front().key_path == "title");
@@ -224,22 +232,23 @@ TEST_CASE("what the mesher would refuse, check refuses first", "[casefile][limit
 }
 
 TEST_CASE("the default averaging radius stays within the smallest defect", "[casefile][limits]") {
-  const CaseSpec spec = read_case_text(
-      with("\n[[defect]]\nkind = \"slit\"\nlayer = \"film\"\nsize = 0.04\n"), "small.toml",
-      test::test_library());
+  const CaseSpec spec =
+      read_case_text(with("\n[[defect]]\nkind = \"slit\"\nlayer = \"film\"\nsize = 0.04\n"),
+                     "small.toml", test::test_library());
   // Half the thinnest layer would be 0.05 um; half the slit is 0.02 um.
   CHECK(spec.report.averaging_radius.value == Approx(0.02));
   CHECK_FALSE(spec.report.averaging_radius.given);
 }
 
 TEST_CASE("a change a variant would lose is an error", "[casefile][limits]") {
-  const InputError layer = test::input_error_of_text(
-      with("\n[[variant]]\nname = \"bare\"\nremove = [\"film\"]\nset = { \"layer.film.thickness\" = 0.2 }\n"));
+  const InputError layer =
+      test::input_error_of_text(with("\n[[variant]]\nname = \"bare\"\nremove = [\"film\"]\nset = { "
+                                     "\"layer.film.thickness\" = 0.2 }\n"));
   CHECK(layer.problems().front().key_path == "variant.bare.set.layer.film.thickness");
   CHECK(layer.problems().front().where.line == 26);
-  const InputError defect = test::input_error_of_text(
-      with("\n[[defect]]\nkind = \"slit\"\nlayer = \"film\"\nsize = 2.0\n"
-           "\n[[variant]]\nname = \"bare\"\nremove = [\"film\"]\nset = { \"defect.1.size\" = 1.0 }\n"));
+  const InputError defect = test::input_error_of_text(with(
+      "\n[[defect]]\nkind = \"slit\"\nlayer = \"film\"\nsize = 2.0\n"
+      "\n[[variant]]\nname = \"bare\"\nremove = [\"film\"]\nset = { \"defect.1.size\" = 1.0 }\n"));
   CHECK(defect.problems().front().key_path == "variant.bare.set.defect.1.size");
   CHECK_THAT(defect.what(), Catch::Matchers::Contains("goes with a layer it removes"));
   const InputError empty =
@@ -260,5 +269,6 @@ TEST_CASE("a case file that is not a regular file is refused without blocking",
   CHECK_THAT(pipe.what(), Catch::Matchers::Contains("named pipe (FIFO)"));
   CHECK_THAT(pipe.what(), Catch::Matchers::StartsWith(fifo.string()));
   std::filesystem::remove_all(folder);
-  CHECK_THAT(test::input_error_of("/dev/null").what(), Catch::Matchers::Contains("character device"));
+  CHECK_THAT(test::input_error_of("/dev/null").what(),
+             Catch::Matchers::Contains("character device"));
 }

@@ -1,7 +1,7 @@
 // Text echoed from a user's file into a message: control characters named,
 // long values shortened, repeated problems counted.
-#include "plystrain/solver/input_error.hpp"
 #include "plystrain/solver/input_text.hpp"
+#include "plystrain/solver/input_error.hpp"
 #include "plystrain/solver/text_distance.hpp"
 
 #include <catch2/catch.hpp>
@@ -13,9 +13,11 @@ TEST_CASE("control characters are named, not echoed", "[input][text]") {
   CHECK(escape_control_characters(std::string("a\0b", 3)) == "a\\u0000b");
   CHECK(escape_control_characters("\x1b[31mred\x07") == "\\u001B[31mred\\u0007");
   CHECK(escape_control_characters("\x7f") == "\\u007F");
-  CHECK(escape_control_characters("\xc2\x85") == "\\u0085");          // C1 next line
-  CHECK(escape_control_characters("\xe2\x80\xae" "abc") == "\\u202Eabc");  // right-to-left override
-  CHECK(escape_control_characters("\xff" "x\xc3") == "\\xFFx\\xC3");    // not UTF-8
+  CHECK(escape_control_characters("\xc2\x85") == "\\u0085");  // C1 next line
+  CHECK(escape_control_characters("\xe2\x80\xae"
+                                  "abc") == "\\u202Eabc");  // right-to-left override
+  CHECK(escape_control_characters("\xff"
+                                  "x\xc3") == "\\xFFx\\xC3");  // not UTF-8
   CHECK(has_control_characters("tab\there"));
   CHECK_FALSE(has_control_characters("no tab here"));
 }
@@ -49,15 +51,17 @@ TEST_CASE("an input error lists a few of each kind and counts the rest", "[input
   };
   std::vector<InputProblem> problems;
   for (int i = 1; i <= 1000; ++i) {
-    problems.push_back(problem(i, "sweep.values[" + std::to_string(i) + "]",
-                               "expected a number, found the string \"x" + std::to_string(i) + "\""));
+    problems.push_back(
+        problem(i, "sweep.values[" + std::to_string(i) + "]",
+                "expected a number, found the string \"x" + std::to_string(i) + "\""));
   }
   problems.push_back(problem(2000, "title", "expected a string without control characters"));
   const InputError error(problems);
   REQUIRE(error.problems().size() == problems_listed_per_kind + 1);
   CHECK(error.problems()[problems_listed_per_kind - 1].similar_not_listed == 995);
   CHECK(error.problems().back().key_path == "title");
-  CHECK_THAT(error.what(), Catch::Matchers::Contains("f.toml:5:3: ... and 995 more errors like this"));
+  CHECK_THAT(error.what(),
+             Catch::Matchers::Contains("f.toml:5:3: ... and 995 more errors like this"));
   CHECK(error.not_listed() == 0);
 }
 

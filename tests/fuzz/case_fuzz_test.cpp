@@ -31,8 +31,12 @@ using namespace plystrain;
 
 namespace {
 
-std::filesystem::path source_dir() { return std::filesystem::path(PLYSTRAIN_SOURCE_DIR); }
-std::filesystem::path data_dir() { return std::filesystem::path(PLYSTRAIN_TEST_DATA_DIR); }
+std::filesystem::path source_dir() {
+  return std::filesystem::path(PLYSTRAIN_SOURCE_DIR);
+}
+std::filesystem::path data_dir() {
+  return std::filesystem::path(PLYSTRAIN_TEST_DATA_DIR);
+}
 
 std::string read_text(const std::filesystem::path& file) {
   std::ifstream stream(file, std::ios::binary);
@@ -81,8 +85,9 @@ std::vector<std::string> seed_cases() {
 
 // The built-in library and the material files the test cases name.
 const MaterialLibrary& library() {
-  static const MaterialLibrary merged = load_material_library(
-      {data_dir() / "cases" / "good" / "extra-materials.toml", data_dir() / "cli" / "check-materials.toml"});
+  static const MaterialLibrary merged =
+      load_material_library({data_dir() / "cases" / "good" / "extra-materials.toml",
+                             data_dir() / "cli" / "check-materials.toml"});
   return merged;
 }
 
@@ -95,7 +100,8 @@ std::optional<std::string> unsafe_text(const std::string& text) {
   while (start <= text.size()) {
     const std::size_t end = std::min(text.find('\n', start), text.size());
     if (has_control_characters(std::string_view(text).substr(start, end - start))) {
-      return "a control character in: " + escape_control_characters(text.substr(start, end - start));
+      return "a control character in: " +
+             escape_control_characters(text.substr(start, end - start));
     }
     start = end + 1;
   }
@@ -207,7 +213,8 @@ TEST_CASE("accepted mutants are accepted by the mesher and the solver set-up", "
 
 TEST_CASE("inputs the fuzzer found crashing the reader are refused cleanly", "[fuzz]") {
   std::vector<std::filesystem::path> files;
-  for (const auto& entry : std::filesystem::directory_iterator(data_dir() / "cases" / "fuzz-found")) {
+  for (const auto& entry :
+       std::filesystem::directory_iterator(data_dir() / "cases" / "fuzz-found")) {
     files.push_back(entry.path());
   }
   REQUIRE(files.size() >= 2);

@@ -50,7 +50,8 @@ class CaseMutator {
     std::size_t start = 0;
     while (start <= text.size()) {
       const std::size_t end = text.find('\n', start);
-      lines.push_back(text.substr(start, end == std::string::npos ? std::string::npos : end - start));
+      lines.push_back(
+          text.substr(start, end == std::string::npos ? std::string::npos : end - start));
       if (end == std::string::npos) {
         break;
       }
@@ -95,35 +96,80 @@ class CaseMutator {
   }
 
   static std::string extreme_number(Random& random) {
-    static const std::vector<std::string> numbers = {
-        "1e308", "-1e308", "1.7976931348623157e308", "5e-324", "-5e-324", "1e-320", "0", "-0.0",
-        "0.0", "9223372036854775807", "-9223372036854775808", "nan", "-nan", "inf", "-inf",
-        "1e-9", "1e9", "1e-4", "1e7", "1e-5", "-1", "-1e-300", "0.5", "1", "2", "1000001",
-        "0x7fffffff", "1e400", "3", "100", "1e-300", "999999.999999"};
+    static const std::vector<std::string> numbers = {"1e308",
+                                                     "-1e308",
+                                                     "1.7976931348623157e308",
+                                                     "5e-324",
+                                                     "-5e-324",
+                                                     "1e-320",
+                                                     "0",
+                                                     "-0.0",
+                                                     "0.0",
+                                                     "9223372036854775807",
+                                                     "-9223372036854775808",
+                                                     "nan",
+                                                     "-nan",
+                                                     "inf",
+                                                     "-inf",
+                                                     "1e-9",
+                                                     "1e9",
+                                                     "1e-4",
+                                                     "1e7",
+                                                     "1e-5",
+                                                     "-1",
+                                                     "-1e-300",
+                                                     "0.5",
+                                                     "1",
+                                                     "2",
+                                                     "1000001",
+                                                     "0x7fffffff",
+                                                     "1e400",
+                                                     "3",
+                                                     "100",
+                                                     "1e-300",
+                                                     "999999.999999"};
     return numbers[pick(random, numbers.size())];
   }
 
   static std::string wrong_type(Random& random) {
-    static const std::vector<std::string> values = {
-        "\"x\"", "true", "[1, 2]", "{ a = 1 }", "1979-05-27", "07:32:00", "[]", "[[0, 0], [1, -1]]",
-        "\"\"", "{}", "[\"a\", 1]", "'literal'", "\"\"\"multi\nline\"\"\"", "[true]",
-        "\"layer.base.thickness\"", "[0.1, 0.2, 0.3]", "\"strip\"", "\"disk\""};
+    static const std::vector<std::string> values = {"\"x\"",
+                                                    "true",
+                                                    "[1, 2]",
+                                                    "{ a = 1 }",
+                                                    "1979-05-27",
+                                                    "07:32:00",
+                                                    "[]",
+                                                    "[[0, 0], [1, -1]]",
+                                                    "\"\"",
+                                                    "{}",
+                                                    "[\"a\", 1]",
+                                                    "'literal'",
+                                                    "\"\"\"multi\nline\"\"\"",
+                                                    "[true]",
+                                                    "\"layer.base.thickness\"",
+                                                    "[0.1, 0.2, 0.3]",
+                                                    "\"strip\"",
+                                                    "\"disk\""};
     return values[pick(random, values.size())];
   }
 
   static std::string control_text(Random& random) {
     static const std::vector<std::string> texts = {
-        "\"a\\u0007b\"", "\"\\u001b[31mred\\u001b[0m\"", "\"nul\\u0000cut\"", "\"tab\\tname\"",
-        "\"line\\nbreak\"", "\"\\u202Eevil\"", "\"\\u0085next\"", "\"\\u007f\"",
-        "\"film\\u200B\"", "\"back\\\\slash\""};
+        "\"a\\u0007b\"",     "\"\\u001b[31mred\\u001b[0m\"",
+        "\"nul\\u0000cut\"", "\"tab\\tname\"",
+        "\"line\\nbreak\"",  "\"\\u202Eevil\"",
+        "\"\\u0085next\"",   "\"\\u007f\"",
+        "\"film\\u200B\"",   "\"back\\\\slash\""};
     return texts[pick(random, texts.size())];
   }
 
   static std::string huge_value(Random& random) {
     const std::size_t length = 1000 + pick(random, 60000);
     switch (pick(random, 4)) {
-      case 0: return "\"" + std::string(length, 'a') + "\"";
-      case 1: return "\"" + std::string(length / 10, '-') + "\"";
+      case 0:
+        return "\"" + std::string(length, 'a') + "\"";
+      case 1:
+        return "\"" + std::string(length / 10, '-') + "\"";
       case 2: {
         std::string array = "[";
         for (std::size_t i = 0; i < length / 4; ++i) {
@@ -181,8 +227,12 @@ class CaseMutator {
       case 0:
         block = "\n[[layer]]\nname = \"l\"\nrole = \"other\"\nmaterial = \"gold\"\nthickness = 1.0";
         break;
-      case 1: block = "\n[[defect]]\nkind = \"slit\"\nlayer = \"l\"\nsize = 1.0"; break;
-      default: block = "\n[[variant]]\nname = \"v\""; break;
+      case 1:
+        block = "\n[[defect]]\nkind = \"slit\"\nlayer = \"l\"\nsize = 1.0";
+        break;
+      default:
+        block = "\n[[variant]]\nname = \"v\"";
+        break;
     }
     std::string text = joined(lines);
     for (std::size_t i = 0; i < copies; ++i) {
@@ -195,9 +245,9 @@ class CaseMutator {
   }
 
   static std::string raw_byte(Random& random) {
-    static const std::vector<std::string> bytes = {std::string(1, '\0'), "\x07", "\x1b[2J",
-                                                   "\xff",  "\xc3",      "\xed\xa0\x80",
-                                                   "\r",    "\x7f",      "\xe2\x80\xae"};
+    static const std::vector<std::string> bytes = {
+        std::string(1, '\0'), "\x07", "\x1b[2J", "\xff",        "\xc3",
+        "\xed\xa0\x80",       "\r",   "\x7f",    "\xe2\x80\xae"};
     return bytes[pick(random, bytes.size())];
   }
 
@@ -256,8 +306,7 @@ class CaseMutator {
         mutant.edits.push_back("a flood of tables");
         return;
       case 10: {
-        const std::vector<std::string> donor =
-            lines_of(seeds_[pick(random, seeds_.size())]);
+        const std::vector<std::string> donor = lines_of(seeds_[pick(random, seeds_.size())]);
         lines.insert(lines.begin() + static_cast<long>(at), donor[pick(random, donor.size())]);
         mutant.edits.push_back("a line of another case at line " + std::to_string(at + 1));
         break;
