@@ -22,7 +22,8 @@ std::string number(double value) {
 
 std::vector<LimitRow> limit_rows() {
   return {
-      {"size of the case file", count(case_file_bytes) + " bytes (1 MiB)",
+      {"size of the case file (and of each material file)",
+       count(case_file_bytes) + " bytes (1 MiB)",
        "the largest example case is a few kilobytes; a profile of 10,000 points fits"},
       {"nesting of tables, dotted keys, arrays and inline tables", count(nesting_depth) + " levels",
        "the format needs five (a nested variant `set`); the TOML parser recurses once per level"},
@@ -56,6 +57,14 @@ std::vector<LimitRow> limit_rows() {
       {"cells of the mesh, estimated from the stack and the mesh sizes",
        count(static_cast<std::size_t>(mesh_cells)),
        "about 8 million unknowns with quadratic cells, past the memory of a workstation"},
+      {"material files: Young's or initial shear modulus; bulk modulus",
+       number(smallest_modulus_mpa) + " to " + number(largest_modulus_mpa) + " MPa; " +
+           number(smallest_modulus_mpa) + " to " + number(largest_bulk_modulus_mpa) + " MPa",
+       "1 Pa to 10 TPa spans every solid; a denormal or astronomical modulus is a typing "
+       "mistake that the solver would turn into nonsense"},
+      {"material files: crack-onset and yield strains",
+       number(smallest_limit_strain) + " to " + number(largest_limit_strain),
+       "fractions: 10 is 1,000 %"},
       {"`report.averaging_radius`",
        "at most the thinnest layer's thickness and half the smallest defect's size",
        "a wider disc averages the concentration away"},

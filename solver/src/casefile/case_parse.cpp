@@ -6,6 +6,7 @@
 #include "plystrain/solver/case_limits.hpp"
 #include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/text_distance.hpp"
+#include "plystrain/solver/toml_text_check.hpp"
 
 #include <toml++/toml.h>
 
@@ -577,6 +578,16 @@ class DocumentParser {
 };
 
 }  // namespace
+
+std::optional<InputProblem> text_problem(std::string_view text, const std::filesystem::path& file) {
+  if (text.size() <= limits::case_file_bytes &&
+      text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
+    return InputProblem{SourceLocation{file.string(), 1, 1}, "",
+                        "the case file is empty (expected at least `format = 1`, [geometry], "
+                        "[[layer]] and [load])"};
+  }
+  return toml_text_problem(text, file.string());
+}
 
 CaseDocument parse_case_document(std::string_view text, const std::filesystem::path& file) {
   if (const std::optional<InputProblem> problem = text_problem(text, file)) {

@@ -12,7 +12,7 @@
 
 namespace plystrain::limits {
 
-// The file.
+// The file (a case or a material file).
 inline constexpr std::uintmax_t case_file_bytes = 1024 * 1024;
 // Levels of tables, dotted-key parts, arrays and inline tables from the top
 // of the file to the deepest value. The deepest case the format needs is a
@@ -54,6 +54,16 @@ inline constexpr double mesh_cells = 1e6;
 // at, averages the concentration away.
 inline constexpr double averaging_radius_per_thinnest_layer = 1.0;
 inline constexpr double averaging_radius_per_defect_size = 0.5;
+
+// Material files (a case's `materials`): a Young's or initial shear modulus from
+// 1 Pa (a soft gel is about 1 kPa) to 10 TPa (diamond is about 1 TPa); the
+// bulk modulus up to 1e10 MPa, room for a nearly incompressible stiff
+// solid; crack-onset and yield strains from 1e-6 to 10 (1,000 %).
+inline constexpr double smallest_modulus_mpa = 1e-6;
+inline constexpr double largest_modulus_mpa = 1e7;
+inline constexpr double largest_bulk_modulus_mpa = 1e10;
+inline constexpr double smallest_limit_strain = 1e-6;
+inline constexpr double largest_limit_strain = 10.0;
 
 // One line of the reference's "Limits" table.
 struct LimitRow {

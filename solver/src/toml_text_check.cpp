@@ -1,22 +1,16 @@
-// Checks of the raw text of a case, before the TOML parser sees it. The
-// parser builds one table per part of a dotted key or header and recurses
-// through them: a key 50,000 parts deep exhausts the stack inside it, so
-// nesting is measured here, by a scan that only follows strings, comments
-// and brackets (and never fails: syntax is the parser's business).
-#include "case_document.hpp"
+#include "plystrain/solver/toml_text_check.hpp"
 
 #include "plystrain/solver/case_limits.hpp"
 #include "plystrain/solver/input_text.hpp"
 
 #include <vector>
 
-namespace plystrain::casefile {
+namespace plystrain {
 
 namespace {
 
 // file:line:column of a byte offset, counting characters, not bytes.
-SourceLocation location_at(std::string_view text, std::size_t offset,
-                           const std::filesystem::path& file) {
+SourceLocation location_at(std::string_view text, std::size_t offset, const std::string& file) {
   int line = 1;
   int column = 1;
   for (std::size_t i = 0; i < offset && i < text.size(); ++i) {
@@ -27,7 +21,7 @@ SourceLocation location_at(std::string_view text, std::size_t offset,
       ++column;
     }
   }
-  return SourceLocation{file.string(), line, column};
+  return SourceLocation{file, line, column};
 }
 
 // The offset of the first byte that makes `text` not UTF-8 text, and why.
@@ -208,17 +202,11 @@ class NestingScan {
 
 }  // namespace
 
-std::optional<InputProblem> text_problem(std::string_view text, const std::filesystem::path& file) {
+std::optional<InputProblem> toml_text_problem(std::string_view text, const std::string& file) {
   if (text.size() > limits::case_file_bytes) {
     return InputProblem{location_at(text, limits::case_file_bytes, file), "",
-                        "expected a case file of at most " +
-                            grouped_count(limits::case_file_bytes) +
+                        "expected a file of at most " + grouped_count(limits::case_file_bytes) +
                             " bytes (1 MiB), found more: the limit is passed here"};
-  }
-  if (text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
-    return InputProblem{SourceLocation{file.string(), 1, 1}, "",
-                        "the case file is empty (expected at least `format = 1`, [geometry], "
-                        "[[layer]] and [load])"};
   }
   if (const auto problem = encoding_problem(text)) {
     return InputProblem{location_at(text, problem->first, file), "", problem->second};
@@ -232,4 +220,4 @@ std::optional<InputProblem> text_problem(std::string_view text, const std::files
   return std::nullopt;
 }
 
-}  // namespace plystrain::casefile
+}  // namespace plystrain
