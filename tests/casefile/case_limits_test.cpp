@@ -5,8 +5,10 @@
 // free of control characters.
 #include "case_test_support.hpp"
 
+#include "plystrain/mesh/stack_mesher.hpp"
 #include "plystrain/solver/case_limits.hpp"
 #include "plystrain/solver/input_text.hpp"
+#include "plystrain/solver/stack_from_case.hpp"
 
 #include <sys/stat.h>
 
@@ -271,4 +273,21 @@ TEST_CASE("a case file that is not a regular file is refused without blocking",
   std::filesystem::remove_all(folder);
   CHECK_THAT(test::input_error_of("/dev/null").what(),
              Catch::Matchers::Contains("character device"));
+}
+
+TEST_CASE("the mesh estimate bounds the mesher's count closely", "[casefile][limits]") {
+  // The estimate refuses a case before meshing: it must not be below the
+  // count the mesher makes, nor so far above it that it refuses a case the
+  // mesher would build within the limit.
+  const std::filesystem::path cases = test::source_dir() / "cases";
+  for (const char* name : {"sensor-patch-scratch", "thin-spot-debond", "wrist-foil-bend",
+                           "dome-cell", "mould-patch-press"}) {
+    const CaseSpec spec = read_case(cases / name / "case.toml");
+    const double cells =
+        static_cast<double>(mesh::build_stack_mesh(stack_from_case(spec)).cell_count());
+    const double estimate = estimated_mesh_cells(spec);
+    INFO(name << ": " << cells << " cells, estimated " << estimate);
+    CHECK(estimate >= cells);
+    CHECK(estimate <= 1.25 * cells);
+  }
 }

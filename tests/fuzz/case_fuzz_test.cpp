@@ -5,9 +5,10 @@
 // then be accepted by the mesher and the solver's set-up as well: `check`
 // must not pass what `run` refuses.
 //
-// PLYSTRAIN_FUZZ_MUTANTS and PLYSTRAIN_FUZZ_SEED change the count (2,000)
-// and the seed (1) for a longer run by hand; a failure names the mutant's
-// number, which makes it again under the same seed.
+// PLYSTRAIN_FUZZ_MUTANTS, PLYSTRAIN_FUZZ_MESHES and PLYSTRAIN_FUZZ_SEED
+// change the count of mutants (2,000), of meshed mutants (12) and the seed
+// (1) for a longer run by hand; a failure names the mutant's number, which
+// makes it again under the same seed.
 #include "case_mutator.hpp"
 
 #include "plystrain/mesh/mesh_error.hpp"
@@ -155,6 +156,10 @@ std::string describe(std::size_t number, const fuzz::Mutant& mutant) {
 std::optional<std::string> set_up_problem(const CaseSpec& spec) {
   try {
     mesh::Mesh grid = mesh::build_stack_mesh(stack_from_case(spec));
+    if (static_cast<double>(grid.cell_count()) > estimated_mesh_cells(spec)) {
+      return "the mesh has " + std::to_string(grid.cell_count()) +
+             " cells, more than the reader's estimate, which the limit on cells relies on";
+    }
     std::vector<LoadCase> load_cases = build_load_cases(spec, grid);
     for (LoadCase& load_case : load_cases) {
       const solver::Model model(grid, load_case.definition);
@@ -194,10 +199,10 @@ TEST_CASE("mutants of the cases are read or refused with file and line", "[fuzz]
 TEST_CASE("accepted mutants are accepted by the mesher and the solver set-up", "[fuzz]") {
   const fuzz::CaseMutator mutator(seed_cases(), setting("PLYSTRAIN_FUZZ_SEED", 1) + 7);
   // A bounded sample: meshing is the slow part, so only small meshes.
-  constexpr std::size_t wanted = 12;
+  const std::size_t wanted = setting("PLYSTRAIN_FUZZ_MESHES", 12);
   constexpr double small_mesh = 20000;
   std::size_t checked = 0;
-  for (std::size_t number = 0; number < 3000 && checked < wanted; ++number) {
+  for (std::size_t number = 0; number < 250 * wanted && checked < wanted; ++number) {
     const fuzz::Mutant mutant = mutator.make(number);
     const Outcome outcome = try_mutant(mutant.text);
     if (!outcome.accepted || estimated_mesh_cells(*outcome.accepted) > small_mesh) {

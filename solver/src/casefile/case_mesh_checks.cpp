@@ -168,26 +168,45 @@ class MeshabilityChecker {
     }
   }
 
-  // Columns of cells along x, as an upper estimate: the uniform part at
-  // size_far, and around each cut two columns graded from size_near over
-  // grade_over (the mesher's geometric series, summed in closed form).
+  // Cells along x, as the mesher lays them out (stack_layout.cpp), each
+  // count rounded up: between two cuts that are defect edges, two columns
+  // graded from size_near over at most grade_over (or half the gap), the
+  // rest at size_far; next to an end of the cell, one graded column. The
+  // geometric series of a graded column is summed in closed form.
   double columns_along(const std::vector<Cut>& cuts) const {
     const MeshSpec& mesh = spec_.mesh;
     const double far = mesh.size_far.value;
     const double near = std::min(mesh.size_near.value, far);
-    const double over = std::min(mesh.grade_over.value, end_ - start_);
+    const double over = mesh.grade_over.value;
     double ratio = 1.0;
     if (far > near * (1.0 + 1e-12)) {
-      ratio = mesh.grade_over.value > far
-                  ? (mesh.grade_over.value - near) / (mesh.grade_over.value - far)
-                  : 2.0;
+      ratio = over > far ? (over - near) / (over - far) : 2.0;
       ratio = std::clamp(ratio, 1.0, 2.0);
     }
-    const double graded = ratio <= 1.0 + 1e-12
-                              ? over / near
-                              : std::log1p(over * (ratio - 1.0) / near) / std::log(ratio);
-    const double fine_cuts = static_cast<double>(cuts.size()) - 2.0;
-    return (end_ - start_) / far + fine_cuts * 2.0 * (graded + 2.0) + 2.0;
+    const auto graded = [&](double length) {
+      const double count = ratio <= 1.0 + 1e-12
+                               ? length / near
+                               : std::log1p(length * (ratio - 1.0) / near) / std::log(ratio);
+      return std::max(2.0, std::ceil(count) + 1.0);
+    };
+    const auto uniform = [&](double length) { return std::ceil(length / far) + 1.0; };
+    double columns = 0.0;
+    for (std::size_t k = 1; k < cuts.size(); ++k) {
+      const double length = cuts[k].x - cuts[k - 1].x;
+      const int fine = (cuts[k - 1].defect >= 0 ? 1 : 0) + (cuts[k].defect >= 0 ? 1 : 0);
+      if (length <= same_place()) {
+        continue;
+      }
+      if (fine == 0) {
+        columns += uniform(length);
+      } else if (fine == 2) {
+        columns += length <= 2.0 * over ? 2.0 * graded(length / 2.0)
+                                        : 2.0 * graded(over) + uniform(length - 2.0 * over);
+      } else {
+        columns += length <= over ? graded(length) : graded(over) + uniform(length - over);
+      }
+    }
+    return columns;
   }
 
   // Rows of cells through the stack, as the mesher counts them.
