@@ -5,6 +5,7 @@
 #include "plystrain/materials/builtin_library.hpp"
 #include "plystrain/solver/case_limits.hpp"
 #include "plystrain/solver/input_error.hpp"
+#include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/text_distance.hpp"
 #include "plystrain/solver/toml_text_check.hpp"
 
@@ -127,6 +128,12 @@ class MaterialFileReader {
     std::map<std::string, MaterialRecord> records;
     for (const auto& [key, node] : root) {
       const std::string name(key.str());
+      if (has_control_characters(name) || character_count(name) > limits::name_characters) {
+        problem(node, "material." + echoed(name),
+                "expected a material key of at most " + grouped_count(limits::name_characters) +
+                    " characters without control characters, found " + quoted_echo(name));
+        continue;
+      }
       const toml::table* table = node.as_table();
       if (table == nullptr) {
         problem(node, "material." + name,
@@ -459,7 +466,15 @@ class MaterialFileReader {
       problem(*node, path + "." + key, "expected a string, found " + type_name(*node));
       return std::nullopt;
     }
-    return node->value<std::string>();
+    // Listings and reports print these strings: none may act on a terminal.
+    const std::string& text = node->as_string()->get();
+    if (has_control_characters(text) || character_count(text) > limits::text_characters) {
+      problem(*node, path + "." + key,
+              "expected a string of at most " + grouped_count(limits::text_characters) +
+                  " characters without control characters, found " + quoted_echo(text));
+      return std::nullopt;
+    }
+    return text;
   }
 
   std::optional<std::string> required_string(const std::string& path, const toml::table& table,

@@ -238,6 +238,14 @@ TEST_CASE("malformed user files name file, line and key", "[materials][library]"
     const InputProblem bulk = problem_at("out_of_range.toml", "material.my-gel.bulk_modulus");
     CHECK_THAT(bulk.message, Contains("from 1e-06 to 1e+10, found 1e+300"));
   }
+  SECTION("control characters in a string or a key") {
+    const InputProblem source = problem_at("control_characters.toml", "material.my-film.source");
+    CHECK(source.where.line == line_containing(data_file("control_characters.toml"), "2J"));
+    CHECK_THAT(source.message,
+               Contains("without control characters, found \"test data \\u001B[2J\""));
+    const InputProblem key = problem_at("control_characters.toml", "material.ev\\u0007il");
+    CHECK_THAT(key.message, Contains("expected a material key"));
+  }
   SECTION("nesting too deep for the TOML parser") {
     const std::filesystem::path file = std::filesystem::temp_directory_path() /
                                        ("plystrain-deep-" + std::to_string(::getpid()) + ".toml");
