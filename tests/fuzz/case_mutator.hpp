@@ -8,6 +8,7 @@
 #include <cstdint>
 #include <random>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace plystrain::fuzz {
@@ -95,72 +96,40 @@ class CaseMutator {
     return true;
   }
 
+  // One of the '|'-separated choices.
+  static std::string one_of(Random& random, std::string_view choices) {
+    std::vector<std::string> parts;
+    std::size_t start = 0;
+    while (true) {
+      const std::size_t bar = choices.find('|', start);
+      parts.emplace_back(choices.substr(start, bar == std::string_view::npos ? bar : bar - start));
+      if (bar == std::string_view::npos) {
+        return parts[pick(random, parts.size())];
+      }
+      start = bar + 1;
+    }
+  }
+
   static std::string extreme_number(Random& random) {
-    static const std::vector<std::string> numbers = {"1e308",
-                                                     "-1e308",
-                                                     "1.7976931348623157e308",
-                                                     "5e-324",
-                                                     "-5e-324",
-                                                     "1e-320",
-                                                     "0",
-                                                     "-0.0",
-                                                     "0.0",
-                                                     "9223372036854775807",
-                                                     "-9223372036854775808",
-                                                     "nan",
-                                                     "-nan",
-                                                     "inf",
-                                                     "-inf",
-                                                     "1e-9",
-                                                     "1e9",
-                                                     "1e-4",
-                                                     "1e7",
-                                                     "1e-5",
-                                                     "-1",
-                                                     "-1e-300",
-                                                     "0.5",
-                                                     "1",
-                                                     "2",
-                                                     "1000001",
-                                                     "0x7fffffff",
-                                                     "1e400",
-                                                     "3",
-                                                     "100",
-                                                     "1e-300",
-                                                     "999999.999999"};
-    return numbers[pick(random, numbers.size())];
+    return one_of(random,
+                  "1e308|-1e308|1.7976931348623157e308|5e-324|-5e-324|1e-320|0|-0.0|0.0|"
+                  "9223372036854775807|-9223372036854775808|nan|-nan|inf|-inf|1e-9|1e9|1e-4|"
+                  "1e7|1e-5|-1|-1e-300|0.5|1|2|1000001|0x7fffffff|1e400|3|100|1e-300|"
+                  "999999.999999");
   }
 
   static std::string wrong_type(Random& random) {
-    static const std::vector<std::string> values = {"\"x\"",
-                                                    "true",
-                                                    "[1, 2]",
-                                                    "{ a = 1 }",
-                                                    "1979-05-27",
-                                                    "07:32:00",
-                                                    "[]",
-                                                    "[[0, 0], [1, -1]]",
-                                                    "\"\"",
-                                                    "{}",
-                                                    "[\"a\", 1]",
-                                                    "'literal'",
-                                                    "\"\"\"multi\nline\"\"\"",
-                                                    "[true]",
-                                                    "\"layer.base.thickness\"",
-                                                    "[0.1, 0.2, 0.3]",
-                                                    "\"strip\"",
-                                                    "\"disk\""};
-    return values[pick(random, values.size())];
+    return one_of(random,
+                  "\"x\"|true|[1, 2]|{ a = 1 }|1979-05-27|07:32:00|[]|[[0, 0], [1, -1]]|\"\"|{}|"
+                  "[\"a\", 1]|'literal'|\"\"\"multi\nline\"\"\"|[true]|\"layer.base.thickness\"|"
+                  "[0.1, 0.2, 0.3]|\"strip\"|\"disk\"");
   }
 
   static std::string control_text(Random& random) {
-    static const std::vector<std::string> texts = {
-        "\"a\\u0007b\"",     "\"\\u001b[31mred\\u001b[0m\"",
-        "\"nul\\u0000cut\"", "\"tab\\tname\"",
-        "\"line\\nbreak\"",  "\"\\u202Eevil\"",
-        "\"\\u0085next\"",   "\"\\u007f\"",
-        "\"film\\u200B\"",   "\"back\\\\slash\""};
-    return texts[pick(random, texts.size())];
+    return one_of(random,
+                  "\"a\\u0007b\"|\"\\u001b[31mred\\u001b[0m\"|\"nul\\u0000cut\"|\"tab\\tname\"|"
+                  "\"line\\nbreak\"|\"\\u202Eevil\"|\"\\u0085next\"|\"\\u007f\"|\"film\\u200B\"|"
+                  "\"back\\\\slash\"");
   }
 
   static std::string huge_value(Random& random) {

@@ -46,6 +46,8 @@ std::vector<KeyInfo> build_table() {
   const KeyCondition strip_only{"geometry.shape", {"strip"}};
   std::vector<KeyInfo> keys;
   const auto add = [&keys](KeyInfo info) { keys.push_back(std::move(info)); };
+  // The most elements an array key takes (case_limits.hpp), for the key just added.
+  const auto items_at_most = [&keys](std::size_t count) { keys.back().max_items = count; };
 
   // Top level.
   add({.section = S::top, .name = "format", .kind = V::integer, .required = true,
@@ -56,16 +58,12 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::top, .name = "units", .kind = V::choice, .fixed_default = CaseValue{std::string{"um"}},
        .default_text = "\"um\"", .choices = plain({"nm", "um", "mm", "m"}), .settable = false,
        .help = "length unit of every length in the file (converted to micrometres when read)"});
-  add({.section = S::top,
-       .name = "materials",
-       .kind = V::paths,
-       .fixed_default = CaseValue{std::vector<std::string>{}},
-       .default_text = "[]",
-       .max_items = limits::material_files,
-       .unit = U::path,
-       .settable = false,
+  add({.section = S::top, .name = "materials", .kind = V::paths,
+       .fixed_default = CaseValue{std::vector<std::string>{}}, .default_text = "[]",
+       .unit = U::path, .settable = false,
        .help = "extra material files, relative to the case file, merged over the built-in "
                "library (a later file wins)"});
+  items_at_most(limits::material_files);
 
   // [geometry]
   add({.section = S::geometry, .name = "shape", .kind = V::choice, .required = true,
@@ -186,17 +184,12 @@ std::vector<KeyInfo> build_table() {
        .help = "the third direction: `free` = no net force across it (a stretched strip "
                "narrows), `held` = no strain (plane strain; a wide plate bends so), a number = "
                "that nominal strain imposed (equal to `strain` for equibiaxial)"});
-  add({.section = S::load,
-       .name = "radius",
-       .kind = V::lengths,
-       .required = true,
-       .default_text = "required",
-       .max_items = limits::bend_radii,
-       .unit = U::length,
-       .applies_when = {{"kind", {"bend"}}},
+  add({.section = S::load, .name = "radius", .kind = V::lengths, .required = true,
+       .default_text = "required", .unit = U::length, .applies_when = {{"kind", {"bend"}}},
        .help = "bending radius of the stack's neutral plane, or an array of radii run one "
                "after another (e.g. [5000, -5000]); positive: the top of the stack is on the "
                "convex side; |radius| must exceed the stack thickness"});
+  items_at_most(limits::bend_radii);
   add({.section = S::load, .name = "surface", .kind = V::choice, .required = true,
        .default_text = "required", .choices = plain({"sphere", "ellipsoid", "profile"}),
        .applies_when = {conform},
@@ -208,16 +201,12 @@ std::vector<KeyInfo> build_table() {
        .default_text = "required", .min = above(0), .unit = U::length,
        .applies_when = {conform, {"surface", {"ellipsoid"}}},
        .help = "[in-plane, height] semi-axes of the ellipsoid"});
-  add({.section = S::load,
-       .name = "points",
-       .kind = V::points,
-       .required = true,
-       .default_text = "required",
-       .max_items = limits::profile_points,
-       .unit = U::length,
+  add({.section = S::load, .name = "points", .kind = V::points, .required = true,
+       .default_text = "required", .unit = U::length,
        .applies_when = {conform, {"surface", {"profile"}}},
        .help = "surface height as [r, z] pairs: at least two, r starting at 0 and "
                "increasing, z not increasing"});
+  items_at_most(limits::profile_points);
   add({.section = S::load, .name = "method", .kind = V::choice,
        .fixed_default = CaseValue{std::string{"wrap"}}, .default_text = "\"wrap\"",
        .choices = plain({"wrap", "press"}), .applies_when = {conform},
@@ -309,51 +298,37 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::variant, .name = "name", .kind = V::name, .required = true,
        .default_text = "required", .settable = false,
        .help = "unique name of the variant, [a-z0-9-]+"});
-  add({.section = S::variant,
-       .name = "remove",
-       .kind = V::names,
-       .fixed_default = CaseValue{std::vector<std::string>{}},
-       .default_text = "[]",
-       .max_items = limits::layers,
+  add({.section = S::variant, .name = "remove", .kind = V::names,
+       .fixed_default = CaseValue{std::vector<std::string>{}}, .default_text = "[]",
        .settable = false,
        .help = "layers left out; a defect in a removed layer, and a delamination whose "
                "interface loses either face, is left out with it"});
-  add({.section = S::variant,
-       .name = "set",
-       .kind = V::table,
-       .default_text = "{}",
-       .max_items = limits::changes_per_variant,
+  items_at_most(limits::layers);
+  add({.section = S::variant, .name = "set", .kind = V::table, .default_text = "{}",
        .settable = false,
        .help = "changes as `\"path\" = value`, applied before `remove`; paths: "
                "`layer.<name>.<key>`, `defect.<index from 1>.<key>`, `geometry.<key>`, "
                "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`. A path must name a key "
                "(a nested table of no key is an error) of a layer or defect the variant "
                "keeps"});
+  items_at_most(limits::changes_per_variant);
 
   // [sweep]
   add({.section = S::sweep, .name = "parameter", .kind = V::text, .required = true,
        .default_text = "required", .settable = false,
        .help = "the dotted path to vary, as in a variant's `set`"});
-  add({.section = S::sweep,
-       .name = "values",
-       .kind = V::values,
-       .default_text = "required unless `from`, `to`, `count`",
-       .max_items = limits::sweep_values,
-       .settable = false,
+  add({.section = S::sweep, .name = "values", .kind = V::values,
+       .default_text = "required unless `from`, `to`, `count`", .settable = false,
        .help = "the values, each checked like the key it sets"});
+  items_at_most(limits::sweep_values);
   add({.section = S::sweep, .name = "from", .kind = V::number, .default_text = "none",
        .settable = false, .help = "first value of a linear range (with `to` and `count`)"});
   add({.section = S::sweep, .name = "to", .kind = V::number, .default_text = "none",
        .settable = false, .help = "last value of a linear range"});
-  add({.section = S::sweep,
-       .name = "count",
-       .kind = V::integer,
-       .default_text = "none",
-       .min = at_least(2),
-       .max = at_most(static_cast<double>(limits::sweep_values)),
-       .unit = U::count,
-       .settable = false,
+  add({.section = S::sweep, .name = "count", .kind = V::integer, .default_text = "none",
+       .min = at_least(2), .max = at_most(1000), .unit = U::count, .settable = false,
        .help = "number of values of a linear range, ends included"});
+  keys.back().max = at_most(static_cast<double>(limits::sweep_values));  // as many as `values`
   return keys;
 }
 
