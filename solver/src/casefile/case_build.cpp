@@ -2,6 +2,7 @@
 // conversion to micrometres.
 #include "case_document.hpp"
 #include "plystrain/solver/case_limits.hpp"
+#include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/zone_of_influence.hpp"
 
 #include <algorithm>
@@ -309,7 +310,8 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   spec.format = top.integer("format");
   spec.title = top.text("title");
   if (!spec.title.given) {
-    spec.title.value = document.source.filename().string();
+    // The file's name stands in: reports print it, so it is escaped.
+    spec.title.value = escape_control_characters(document.source.filename().string());
   }
   spec.units = top.choice("units", unit_names);
   const double micrometres = micrometres_per(spec.units.value);
