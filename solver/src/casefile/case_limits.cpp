@@ -26,7 +26,8 @@ std::vector<LimitRow> limit_rows() {
        count(case_file_bytes) + " bytes (1 MiB)",
        "the largest example case is a few kilobytes; a profile of 10,000 points fits"},
       {"nesting of tables, dotted keys, arrays and inline tables", count(nesting_depth) + " levels",
-       "the format needs five (a nested variant `set`); the TOML parser recurses once per level"},
+       "the deepest the format needs is a variant `set` written as nested tables (eight); the TOML "
+       "parser recurses once per level"},
       {"a layer or variant name", count(name_characters) + " characters",
        "names head the columns of the reports"},
       {"any other string (title, material, paths, `set` paths)",
@@ -51,8 +52,9 @@ std::vector<LimitRow> limit_rows() {
       {"smallest feature: a layer, a defect's size, a taper, a thin spot's recess and what is "
        "left under it, the gap between two distinct defect edges",
        number(smallest_feature_ratio) +
-           " of the model's extent (the larger of the modelled span and the stack thickness)",
-       "the mesher would make cells more than a million times longer than thick, and the "
+           " of the model's extent (the larger of the modelled span and the stack thickness), "
+           "and at least 0.1 nm",
+       "past it the cells along the film are more than 10^4 times longer than thick, and the "
        "geometry kernel merges points closer than its tolerance"},
       {"cells of the mesh, estimated from the stack and the mesh sizes",
        count(static_cast<std::size_t>(mesh_cells)),

@@ -16,7 +16,7 @@ namespace plystrain::limits {
 inline constexpr std::uintmax_t case_file_bytes = 1024 * 1024;
 // Levels of tables, dotted-key parts, arrays and inline tables from the top
 // of the file to the deepest value. The deepest case the format needs is a
-// nested variant `set` (five levels).
+// variant `set` written as nested tables (eight levels as counted).
 inline constexpr int nesting_depth = 16;
 
 // Text.
@@ -41,8 +41,9 @@ inline constexpr double smallest_length_um = 1e-4;
 // The smallest feature the mesher is asked to resolve (a layer, a defect, a
 // taper, a recess or what is left under it, the gap between two defect
 // edges) as a share of the model's extent (the larger of the modelled span
-// and the stack thickness). Past it the cells along a thin film are more
-// than a million times longer than thick.
+// and the stack thickness), and at least smallest_length_um. Past it the
+// cells along a thin film are more than 10^4 times longer than thick (the
+// far size is a fortieth of the width, a film gets three cells across).
 inline constexpr double smallest_feature_ratio = 1e-6;
 
 // The mesh the case asks for, estimated from the stack and the mesh sizes
