@@ -3,8 +3,11 @@
 #include "plystrain/solver/material_library.hpp"
 
 #include "plystrain/materials/builtin_library.hpp"
+#include "plystrain/solver/case_limits.hpp"
 #include "plystrain/solver/input_error.hpp"
+#include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/text_distance.hpp"
+#include "plystrain/solver/toml_text_check.hpp"
 
 #include <toml++/toml.h>
 
@@ -111,6 +114,9 @@ class MaterialFileReader {
   explicit MaterialFileReader(std::string file_name) : file_(std::move(file_name)) {}
 
   std::map<std::string, MaterialRecord> read(std::string_view text) {
+    if (const std::optional<InputProblem> problem = toml_text_problem(text, file_)) {
+      throw InputError({*problem});
+    }
     toml::table root;
     try {
       root = toml::parse(text, file_);
@@ -122,6 +128,12 @@ class MaterialFileReader {
     std::map<std::string, MaterialRecord> records;
     for (const auto& [key, node] : root) {
       const std::string name(key.str());
+      if (has_control_characters(name) || character_count(name) > limits::name_characters) {
+        problem(node, "material." + echoed(name),
+                "expected a material key of at most " + grouped_count(limits::name_characters) +
+                    " characters without control characters, found " + quoted_echo(name));
+        continue;
+      }
       const toml::table* table = node.as_table();
       if (table == nullptr) {
         problem(node, "material." + name,
@@ -187,7 +199,46 @@ class MaterialFileReader {
       return std::nullopt;
     }
     fill_derived_moduli(record.law);
+    if (!check_ranges(path, table, record)) {
+      return std::nullopt;
+    }
     return record;
+  }
+
+  // Values that pass as positive and finite but are no material's: a
+  // denormal modulus, a modulus of a petapascal, a strain limit of 10^6.
+  bool check_ranges(const std::string& path, const toml::table& table,
+                    const MaterialRecord& record) {
+    const std::size_t problems_before = problems_.size();
+    const auto range = [&](const char* key, double value, double low, double high,
+                           const std::string& what) {
+      if (!(value >= low && value <= high)) {
+        const toml::node* node = table.get(key);
+        problems_.push_back({where(node != nullptr ? node->source() : table.source()),
+                             path + (node != nullptr ? "." + std::string(key) : ""),
+                             "expected " + what + " from " + format_number(low) + " to " +
+                                 format_number(high) + ", found " + format_number(value)});
+      }
+    };
+    const LawParameters& law = record.law;
+    if (table.get("youngs_modulus") != nullptr) {
+      range("youngs_modulus", law.youngs_modulus, limits::smallest_modulus_mpa,
+            limits::largest_modulus_mpa, "a Young's modulus (MPa)");
+    } else {
+      const char* shear_key = table.get("c10") != nullptr ? "c10" : "shear_modulus";
+      range(shear_key, law.shear_modulus, limits::smallest_modulus_mpa, limits::largest_modulus_mpa,
+            "an initial shear modulus (MPa)");
+      range("bulk_modulus", law.bulk_modulus, limits::smallest_modulus_mpa,
+            limits::largest_bulk_modulus_mpa, "a bulk modulus (MPa)");
+    }
+    for (const auto& [key, strain] : {std::pair{"crack_onset_strain", record.crack_onset_strain},
+                                      std::pair{"yield_strain", record.yield_strain}}) {
+      if (strain) {
+        range(key, *strain, limits::smallest_limit_strain, limits::largest_limit_strain,
+              std::string("a ") + key);
+      }
+    }
+    return problems_.size() == problems_before;
   }
 
   std::optional<ModelKind> read_model(const std::string& path, const toml::table& table) {
@@ -415,7 +466,15 @@ class MaterialFileReader {
       problem(*node, path + "." + key, "expected a string, found " + type_name(*node));
       return std::nullopt;
     }
-    return node->value<std::string>();
+    // Listings and reports print these strings: none may act on a terminal.
+    const std::string& text = node->as_string()->get();
+    if (has_control_characters(text) || character_count(text) > limits::text_characters) {
+      problem(*node, path + "." + key,
+              "expected a string of at most " + grouped_count(limits::text_characters) +
+                  " characters without control characters, found " + quoted_echo(text));
+      return std::nullopt;
+    }
+    return text;
   }
 
   std::optional<std::string> required_string(const std::string& path, const toml::table& table,
@@ -481,15 +540,18 @@ class MaterialFileReader {
   std::vector<InputProblem> problems_;
 };
 
+// The file's first limits::case_file_bytes + 1 bytes: enough for the text
+// check to say where the limit is passed, never the whole of a huge file.
 std::string read_file_text(const std::filesystem::path& file) {
   std::ifstream stream(file, std::ios::binary);
   if (!stream) {
     throw InputError(SourceLocation{file.string(), 0, 0}, "",
                      "cannot read the material file (does it exist?)");
   }
-  std::ostringstream text;
-  text << stream.rdbuf();
-  return text.str();
+  std::string text(limits::case_file_bytes + 1, '\0');
+  stream.read(text.data(), static_cast<std::streamsize>(text.size()));
+  text.resize(static_cast<std::size_t>(stream.gcount()));
+  return text;
 }
 
 std::string percent(const std::optional<double>& fraction) {

@@ -23,7 +23,16 @@ int edit_distance(std::string_view a, std::string_view b) {
 std::string closest_match(std::string_view word, const std::vector<std::string>& candidates) {
   std::string best;
   int best_distance = 0;
+  // At most 3 edits are ever accepted, and the lengths alone bound the
+  // distance from below: skipping far longer or shorter candidates keeps a
+  // megabyte-long misspelling from costing seconds.
+  constexpr std::size_t most_edits = 3;
   for (const std::string& candidate : candidates) {
+    const std::size_t gap = word.size() > candidate.size() ? word.size() - candidate.size()
+                                                           : candidate.size() - word.size();
+    if (gap > most_edits) {
+      continue;
+    }
     const int distance = edit_distance(word, candidate);
     if (best.empty() || distance < best_distance) {
       best = candidate;
@@ -31,7 +40,7 @@ std::string closest_match(std::string_view word, const std::vector<std::string>&
     }
   }
   const int longer = static_cast<int>(std::max(word.size(), best.size()));
-  const int allowed = std::clamp(longer / 3, 1, 3);
+  const int allowed = std::clamp(longer / 3, 1, static_cast<int>(most_edits));
   return (!best.empty() && best_distance <= allowed) ? best : std::string{};
 }
 

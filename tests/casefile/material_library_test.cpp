@@ -14,6 +14,8 @@
 #include <sstream>
 #include <string>
 
+#include <unistd.h>
+
 using namespace plystrain;
 using Catch::Matchers::Contains;
 
@@ -222,6 +224,44 @@ TEST_CASE("malformed user files name file, line and key", "[materials][library]"
     CHECK(problem.where.line == line_containing(data_file("mismatched_ogden.toml"), "mu ="));
     CHECK(problem.key_path == "material.my-rubber.mu");
     CHECK_THAT(problem.message, Contains("equal length"));
+  }
+  SECTION("a modulus or a limit strain outside the range of real materials") {
+    const InputProblem denormal =
+        problem_at("out_of_range.toml", "material.my-film.youngs_modulus");
+    CHECK(denormal.where.line == line_containing(data_file("out_of_range.toml"), "5e-324"));
+    CHECK_THAT(denormal.message, Contains("from 1e-06 to 1e+07"));
+    const InputProblem strain =
+        problem_at("out_of_range.toml", "material.my-film.crack_onset_strain");
+    CHECK_THAT(strain.message, Contains("from 1e-06 to 10, found 1e+06"));
+    const InputProblem shear = problem_at("out_of_range.toml", "material.my-gel.shear_modulus");
+    CHECK_THAT(shear.message, Contains("found 1e+09"));
+    const InputProblem bulk = problem_at("out_of_range.toml", "material.my-gel.bulk_modulus");
+    CHECK_THAT(bulk.message, Contains("from 1e-06 to 1e+10, found 1e+300"));
+  }
+  SECTION("control characters in a string or a key") {
+    const InputProblem source = problem_at("control_characters.toml", "material.my-film.source");
+    CHECK(source.where.line == line_containing(data_file("control_characters.toml"), "2J"));
+    CHECK_THAT(source.message,
+               Contains("without control characters, found \"test data \\u001B[2J\""));
+    const InputProblem key = problem_at("control_characters.toml", "material.ev\\u0007il");
+    CHECK_THAT(key.message, Contains("expected a material key"));
+  }
+  SECTION("nesting too deep for the TOML parser") {
+    const std::filesystem::path file = std::filesystem::temp_directory_path() /
+                                       ("plystrain-deep-" + std::to_string(::getpid()) + ".toml");
+    std::string key = "a";
+    for (int i = 0; i < 50000; ++i) {
+      key += ".a";
+    }
+    std::ofstream(file) << "# a dotted key 50,001 parts deep\n" << key << " = 1\n";
+    try {
+      static_cast<void>(load_material_library({file}));
+      FAIL("a 50,001-part key was read");
+    } catch (const InputError& error) {
+      CHECK(error.problems().front().where.line == 2);
+      CHECK_THAT(error.what(), Contains("nested at most 16 levels deep"));
+    }
+    std::filesystem::remove(file);
   }
   SECTION("invalid TOML") {
     const InputProblem problem = problem_at("not_toml.toml", "");

@@ -5,13 +5,15 @@
 // bound under refinement; only a value averaged over a fixed radius converges
 // (theory-of-critical-distances practice; verification.md section 6). The
 // reported peak is the largest disc average, not the average at the raw
-// maximum, and the raw value goes to the log only.
+// maximum. The raw value is kept beside it, and where it would give another
+// verdict the run says so: the radius then decides the verdict.
 #include "plystrain/solver/stack_analysis.hpp"
 
 #include <Eigen/Eigenvalues>
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <limits>
 #include <map>
 
@@ -154,9 +156,57 @@ std::vector<LayerResult> evaluate_layers(const CaseSpec& spec,
       result.yield_margin = 1.0 - result.peak_strain / *result.yield_strain;
     }
     result.verdict = judge(result.peak_strain, result.crack_onset_strain, result.yield_strain);
+    result.raw_peak_verdict =
+        judge(result.raw_peak_strain, result.crack_onset_strain, result.yield_strain);
     layers.push_back(result);
   }
   return layers;
+}
+
+namespace {
+
+std::string percent(double strain) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.3g %%", 100.0 * strain);
+  return text;
+}
+
+// "its crack onset (9 %)" or "its yield strain (2 %)": the limit the raw
+// verdict is about (a disc average never exceeds the raw peak, so the raw
+// verdict is the worse one).
+std::string limit_of(const LayerResult& layer) {
+  if (layer.raw_peak_verdict == Verdict::cracks && layer.crack_onset_strain) {
+    return "its crack onset (" + percent(*layer.crack_onset_strain) + ")";
+  }
+  if (layer.yield_strain) {
+    return "its yield strain (" + percent(*layer.yield_strain) + ")";
+  }
+  return "its limits";
+}
+
+}  // namespace
+
+std::vector<std::string> averaging_cautions(const CaseSpec& spec,
+                                            const std::vector<LayerResult>& layers) {
+  std::vector<std::string> cautions;
+  for (const LayerResult& layer : layers) {
+    if (layer.raw_peak_verdict == layer.verdict || layer.raw_peak_verdict == Verdict::unknown ||
+        layer.verdict == Verdict::unknown) {
+      continue;
+    }
+    char radius[32];
+    std::snprintf(radius, sizeof radius, "%.4g",
+                  spec.report.averaging_radius.value / micrometres_per(spec.units.value));
+    cautions.push_back(
+        "layer " + layer.name + ": the verdict rests on the averaging: its peak averaged over " +
+        "report.averaging_radius = " + radius + " " + unit_name(spec.units.value) + " (" +
+        percent(layer.peak_strain) + ") says " + verdict_text(layer.verdict) +
+        ", its raw integration-point peak (" + percent(layer.raw_peak_strain) + ") says " +
+        verdict_text(layer.raw_peak_verdict) + " against " + limit_of(layer) +
+        "; the raw peak at a corner grows as the mesh is refined, so weigh the radius against "
+        "the film's critical distance (docs/theory.md)");
+  }
+  return cautions;
 }
 
 std::vector<ProfileSample> sample_profiles(const CaseSpec& spec,

@@ -612,6 +612,9 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
   }
 
   run.layers = envelope(evaluations);
+  for (const std::string& caution : averaging_cautions(spec, run.layers)) {
+    run.cautions.push_back(caution);
+  }
   measure_edge_disturbance(spec, run);
   if (run.conform) {
     for (const LayerResult& layer : run.layers) {

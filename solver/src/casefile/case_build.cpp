@@ -1,6 +1,8 @@
 // CaseDocument to CaseSpec: which keys apply, required keys, defaults, unit
 // conversion to micrometres.
 #include "case_document.hpp"
+#include "plystrain/solver/case_limits.hpp"
+#include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/zone_of_influence.hpp"
 
 #include <algorithm>
@@ -202,6 +204,88 @@ bool usable_folder_name(const Located<std::string>& out, Problems& problems) {
   return true;
 }
 
+// The numbers of a length entry, as written (lengths, pairs and points alike).
+std::vector<double> length_numbers(const CaseValue& value) {
+  if (const auto* number = std::get_if<double>(&value)) {
+    return {*number};
+  }
+  if (const auto* numbers = std::get_if<std::vector<double>>(&value)) {
+    return *numbers;
+  }
+  std::vector<double> flat;
+  if (const auto* points = std::get_if<std::vector<std::array<double, 2>>>(&value)) {
+    for (const std::array<double, 2>& point : *points) {
+      flat.insert(flat.end(), point.begin(), point.end());
+    }
+  }
+  return flat;
+}
+
+// Why `micrometres` (a length as converted) is no length of a real device,
+// or "" when it is one. Zero passes only when it was written as zero (and
+// the key allows it): a denormal number becomes zero when converted.
+std::string length_range_problem(double as_written, double micrometres, LengthUnit unit,
+                                 const KeyInfo& key) {
+  const double size = std::abs(micrometres);
+  const bool zero = as_written == 0.0;
+  if (std::isfinite(micrometres) && size <= limits::largest_length_um &&
+      (zero || size >= limits::smallest_length_um)) {
+    return "";
+  }
+  std::string found = float_text(as_written) + " " + unit_name(unit);
+  if (unit != LengthUnit::um) {
+    found += ", which is " + float_text(micrometres) + " um";
+  }
+  if (!std::isfinite(micrometres) || size > limits::largest_length_um) {
+    return "expected a length of at most " + float_text(limits::largest_length_um) +
+           " um (10 m), found " + found;
+  }
+  const bool zero_allowed = !key.min || key.min->value < 0.0 || !key.min->open;
+  return std::string("expected ") + (zero_allowed ? "0 or " : "") + "a length of at least " +
+         float_text(limits::smallest_length_um) + " um (0.1 nm), found " + found;
+}
+
+// Every length of the document, checked after conversion: a value can be in
+// range as written and infinite, zero or denormal in micrometres.
+void check_length_ranges(const CaseDocument& document, double micrometres, LengthUnit unit,
+                         Problems& problems) {
+  const auto check_table = [&](const Table& table, CaseSection section, const std::string& label) {
+    for (const auto& [name, entry] : table.entries) {
+      const KeyInfo* key = find_case_key(section, name);
+      if (key == nullptr || key->unit != UnitKind::length) {
+        continue;
+      }
+      for (const double number : length_numbers(entry.value)) {
+        const std::string problem = length_range_problem(number, number * micrometres, unit, *key);
+        if (!problem.empty()) {
+          problems.add(entry.where, label.empty() ? name : label + "." + name, problem);
+          break;
+        }
+      }
+    }
+  };
+  check_table(document.geometry, CaseSection::geometry, "geometry");
+  for (std::size_t i = 0; i < document.layers.size(); ++i) {
+    check_table(document.layers[i], CaseSection::layer, document.layer_label(i));
+  }
+  for (std::size_t i = 0; i < document.defects.size(); ++i) {
+    check_table(document.defects[i], CaseSection::defect, CaseDocument::defect_label(i));
+  }
+  check_table(document.load, CaseSection::load, "load");
+  check_table(document.mesh, CaseSection::mesh, "mesh");
+  check_table(document.report, CaseSection::report, "report");
+}
+
+// Half the thinnest layer, and at most half the smallest defect, so that the
+// default never averages a defect away (case_limits.hpp).
+double default_averaging_radius(const CaseSpec& spec) {
+  double radius = spec.thinnest_thickness() / 2.0;
+  for (const DefectSpec& defect : spec.defects) {
+    radius = std::min(radius, limits::averaging_radius_per_defect_size * defect.size.value);
+  }
+  return radius;
+}
+
 }  // namespace
 
 CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library) {
@@ -242,10 +326,13 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   spec.format = top.integer("format");
   spec.title = top.text("title");
   if (!spec.title.given) {
-    spec.title.value = document.source.filename().string();
+    // The file's name stands in: reports print it, so it is escaped.
+    spec.title.value = escape_control_characters(document.source.filename().string());
   }
   spec.units = top.choice("units", unit_names);
   const double micrometres = micrometres_per(spec.units.value);
+  check_length_ranges(document, micrometres, spec.units.value, problems);
+  problems.throw_if_any();
   if (const Entry* files = document.top.find("materials")) {
     for (const std::string& file : std::get<std::vector<std::string>>(files->value)) {
       spec.material_files.push_back({file, files->where, true});
@@ -378,7 +465,7 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
         std::filesystem::absolute(case_folder / (spec.name() + "-out")).lexically_normal(),
         document.report.where, false};
   }
-  spec.report.averaging_radius = report.length("averaging_radius", thinnest / 2.0);
+  spec.report.averaging_radius = report.length("averaging_radius", default_averaging_radius(spec));
   spec.report.fields = report.boolean("fields");
   spec.report.profiles = report.boolean("profiles");
   spec.report.verify = report.boolean("verify");
@@ -387,6 +474,8 @@ CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library
   spec.sweep = document.sweep;
 
   check_case(spec, problems);
+  problems.throw_if_any();
+  check_mesher_accepts(spec, problems);
   problems.throw_if_any();
   return spec;
 }

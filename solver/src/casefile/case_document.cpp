@@ -1,11 +1,12 @@
 #include "case_document.hpp"
 
+#include "plystrain/solver/case_limits.hpp"
+#include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/text_distance.hpp"
 
 #include <algorithm>
 #include <charconv>
 #include <cmath>
-#include <regex>
 
 namespace plystrain::casefile {
 
@@ -33,18 +34,36 @@ std::string CaseDocument::defect_label(std::size_t index) {
 }
 
 void Problems::add(SourceLocation where, std::string key_path, std::string message) {
-  list_.push_back(InputProblem{std::move(where), std::move(key_path), std::move(message)});
+  // Enough distinct kinds for any real file; past them a file is only counted.
+  constexpr std::size_t kinds_kept = 200;
+  InputProblem problem{std::move(where), std::move(key_path), std::move(message)};
+  const std::string kind = problem_kind(problem);
+  const auto found = kinds_.find(kind);
+  if (found == kinds_.end()) {
+    if (kinds_.size() >= kinds_kept) {
+      ++not_kept_;
+      return;
+    }
+    kinds_.emplace(kind, Tally{1, list_.size()});
+    list_.push_back(std::move(problem));
+  } else if (found->second.kept < problems_listed_per_kind) {
+    found->second.kept += 1;
+    found->second.last = list_.size();
+    list_.push_back(std::move(problem));
+  } else {
+    list_[found->second.last].similar_not_listed += 1;
+  }
 }
 
 void Problems::throw_if_any() const {
-  if (!list_.empty()) {
+  if (!empty()) {
     // In file order: the first problem the user reads is the first in the file.
     std::vector<InputProblem> sorted = list_;
     std::stable_sort(sorted.begin(), sorted.end(), [](const InputProblem& a, const InputProblem& b) {
       return a.where.line != b.where.line ? a.where.line < b.where.line
                                           : a.where.column < b.where.column;
     });
-    throw InputError(sorted);
+    throw InputError(sorted, not_kept_);
   }
 }
 
@@ -79,11 +98,6 @@ std::string toml_quoted(std::string_view text) {
   return out + "\"";
 }
 
-bool is_name(std::string_view text) {
-  static const std::regex pattern("[a-z0-9-]+");
-  return std::regex_match(text.begin(), text.end(), pattern);
-}
-
 bool within(double value, const KeyInfo& key) {
   if (key.min && (key.min->open ? value <= key.min->value : value < key.min->value)) {
     return false;
@@ -100,7 +114,7 @@ std::string choice_message(const KeyInfo& key, const std::string& found) {
   for (const KeyChoice& choice : key.choices) {
     names.emplace_back(choice.name);
   }
-  std::string message = "expected " + key.type_text() + ", found " + toml_quoted(found);
+  std::string message = "expected " + key.type_text() + ", found " + quoted_echo(found);
   const std::string hint = closest_match(found, names);
   if (!hint.empty()) {
     message += " (did you mean \"" + hint + "\"?)";
@@ -108,7 +122,42 @@ std::string choice_message(const KeyInfo& key, const std::string& found) {
   return message;
 }
 
+// A string of the case: not too long, no control characters; a name also
+// only of [a-z0-9-]. Empty when it is fine.
+std::string text_problem_of(const std::string& text, bool name, std::string_view what) {
+  const std::size_t longest = name ? limits::name_characters : limits::text_characters;
+  const std::size_t length = character_count(text);
+  if (length > longest) {
+    return "expected " + std::string(what) + " of at most " + grouped_count(longest) +
+           " characters, found " + grouped_count(length) + ": " + quoted_echo(text);
+  }
+  if (name ? !is_case_name(text) : has_control_characters(text)) {
+    return "expected " + std::string(what) +
+           (name ? " of lower-case letters, digits and -" : " without control characters") +
+           ", found " + quoted_echo(text);
+  }
+  return "";
+}
+
+std::string too_many_items(const KeyInfo& key, std::size_t count) {
+  return "expected at most " + grouped_count(key.max_items) + " values, found " +
+         grouped_count(count);
+}
+
+template <class T>
+bool over_item_limit(const std::vector<T>& items, const KeyInfo& key) {
+  return key.max_items > 0 && items.size() > key.max_items;
+}
+
 }  // namespace
+
+bool is_case_name(std::string_view text) {
+  // A loop, not a pattern: the standard regex engine recurses per character
+  // and a 50,000-character name ran it out of stack.
+  return !text.empty() && std::all_of(text.begin(), text.end(), [](char c) {
+    return (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '-';
+  });
+}
 
 std::string check_value(const CaseValue& value, const KeyInfo& key) {
   if (const auto* integer = std::get_if<std::int64_t>(&value)) {
@@ -119,6 +168,9 @@ std::string check_value(const CaseValue& value, const KeyInfo& key) {
     return within(*number, key) ? "" : bound_message(key, float_text(*number));
   }
   if (const auto* numbers = std::get_if<std::vector<double>>(&value)) {
+    if (over_item_limit(*numbers, key)) {
+      return too_many_items(key, numbers->size());
+    }
     for (const double number : *numbers) {
       if (!within(number, key)) {
         return bound_message(key, float_text(number));
@@ -126,27 +178,31 @@ std::string check_value(const CaseValue& value, const KeyInfo& key) {
     }
     return "";
   }
+  if (const auto* points = std::get_if<std::vector<std::array<double, 2>>>(&value)) {
+    return over_item_limit(*points, key) ? too_many_items(key, points->size()) : "";
+  }
   if (const auto* text = std::get_if<std::string>(&value)) {
     switch (key.kind) {
       case ValueKind::choice:
       case ValueKind::choice_or_number:
         return key.allows_choice(*text) ? "" : choice_message(key, *text);
       case ValueKind::name:
-        return is_name(*text) ? ""
-                              : "expected a name of lower-case letters, digits and -, found " +
-                                    toml_quoted(*text);
-      default: return "";
+        return text_problem_of(*text, true, "a name");
+      default:
+        return text_problem_of(*text, false, "a string");
     }
   }
   if (const auto* texts = std::get_if<std::vector<std::string>>(&value)) {
-    if (key.kind == ValueKind::names) {
-      for (const std::string& text : *texts) {
-        if (!is_name(text)) {
-          return "expected layer names of lower-case letters, digits and -, found " + toml_quoted(text);
-        }
+    if (over_item_limit(*texts, key)) {
+      return too_many_items(key, texts->size());
+    }
+    const bool names = key.kind == ValueKind::names;
+    for (const std::string& text : *texts) {
+      if (std::string problem = text_problem_of(text, names, names ? "layer names" : "paths");
+          !problem.empty()) {
+        return problem;
       }
     }
-    return "";
   }
   return "";
 }
@@ -215,6 +271,11 @@ Applies key_applies(const KeyInfo& key, const Table& table, const CaseDocument& 
 std::optional<ChangeTarget> resolve_change_path(const std::string& path,
                                                 const CaseDocument& document,
                                                 std::string& problem) {
+  if (path.size() > limits::text_characters || has_control_characters(path)) {
+    problem = "expected a path of at most " + grouped_count(limits::text_characters) +
+              " characters without control characters, found " + quoted_echo(path);
+    return std::nullopt;
+  }
   std::vector<std::string> parts;
   std::size_t start = 0;
   while (true) {
@@ -255,7 +316,7 @@ std::optional<ChangeTarget> resolve_change_path(const std::string& path,
       }
     }
     if (!found) {
-      problem = "path \"" + path + "\": no layer is named \"" + parts[1] + "\"";
+      problem = "path " + quoted_echo(path) + ": no layer is named " + quoted_echo(parts[1]);
       const std::string hint = closest_match(parts[1], names);
       if (!hint.empty()) {
         problem += " (did you mean \"" + hint + "\"?)";
@@ -270,19 +331,19 @@ std::optional<ChangeTarget> resolve_change_path(const std::string& path,
         std::from_chars(parts[1].data(), parts[1].data() + parts[1].size(), index);
     if (error != std::errc{} || end != parts[1].data() + parts[1].size() || index < 1 ||
         static_cast<std::size_t>(index) > document.defects.size()) {
-      problem = "path \"" + path + "\": expected a defect index from 1 to " +
-                std::to_string(document.defects.size()) + ", found \"" + parts[1] + "\"";
+      problem = "path " + quoted_echo(path) + ": expected a defect index from 1 to " +
+                std::to_string(document.defects.size()) + ", found " + quoted_echo(parts[1]);
       return std::nullopt;
     }
     target.index = static_cast<std::size_t>(index - 1);
     key_name = parts[2];
   } else {
-    problem = "unknown path \"" + path + "\": " + forms;
+    problem = "unknown path " + quoted_echo(path) + ": " + forms;
     return std::nullopt;
   }
   target.key = find_case_key(target.section, key_name);
   if (target.key == nullptr) {
-    problem = "path \"" + path + "\": unknown key \"" + key_name + "\"";
+    problem = "path " + quoted_echo(path) + ": unknown key " + quoted_echo(key_name);
     const std::string hint = closest_match(key_name, case_key_names(target.section));
     if (!hint.empty()) {
       problem += " (did you mean \"" + hint + "\"?)";
@@ -292,7 +353,7 @@ std::optional<ChangeTarget> resolve_change_path(const std::string& path,
     return std::nullopt;
   }
   if (!target.key->settable) {
-    problem = "path \"" + path + "\": \"" + key_name +
+    problem = "path " + quoted_echo(path) + ": " + quoted_echo(key_name) +
               "\" cannot be changed by a variant or a sweep";
     return std::nullopt;
   }

@@ -47,15 +47,23 @@ struct CaseDocument {
   [[nodiscard]] static std::string defect_label(std::size_t index);  // "defect[2]"
 };
 
-// Collects problems; at least the first one must be exact.
+// Collects problems; at least the first one must be exact. A hostile file
+// can hold a million mistakes: of each kind only the first few are kept (the
+// rest counted on the last one kept), and only so many kinds.
 class Problems {
  public:
   void add(SourceLocation where, std::string key_path, std::string message);
-  [[nodiscard]] bool empty() const { return list_.empty(); }
+  [[nodiscard]] bool empty() const { return list_.empty() && not_kept_ == 0; }
   void throw_if_any() const;
 
  private:
+  struct Tally {
+    std::size_t kept = 0;
+    std::size_t last = 0;  // index in list_ of the last one kept
+  };
   std::vector<InputProblem> list_;
+  std::map<std::string, Tally, std::less<>> kinds_;
+  std::size_t not_kept_ = 0;
 };
 
 // Whether `key` applies in `table` of `document`: yes, no, or unknown (a
@@ -63,6 +71,9 @@ class Problems {
 enum class Applies { yes, no, unknown };
 [[nodiscard]] Applies key_applies(const KeyInfo& key, const Table& table,
                                   const CaseDocument& document);
+
+// Whether `text` is a name of the case format: [a-z0-9-]+.
+[[nodiscard]] bool is_case_name(std::string_view text);
 
 // Checks a value already of the key's TOML type against its range and
 // choices. Returns an empty string when it is fine, else "expected ..., found ...".
@@ -80,6 +91,11 @@ struct ChangeTarget {
                                                               std::string& problem);
 [[nodiscard]] Table& target_table(CaseDocument& document, const ChangeTarget& target);
 
+// What makes `text` unfit to be parsed at all: too large, empty, not UTF-8
+// text, or nested deeper than the parser can safely follow.
+[[nodiscard]] std::optional<InputProblem> text_problem(std::string_view text,
+                                                       const std::filesystem::path& file);
+
 // TOML text to document: syntax, unknown keys, types, ranges, choices. Throws InputError.
 [[nodiscard]] CaseDocument parse_case_document(std::string_view text,
                                                const std::filesystem::path& file);
@@ -89,8 +105,12 @@ struct ChangeTarget {
 [[nodiscard]] CaseSpec build_case(const CaseDocument& document, const MaterialLibrary& library);
 
 // CaseSpec to document, lengths in the case's unit. With `with_defaults`
-// the filled defaults are included (marked is_default) for display.
-[[nodiscard]] CaseDocument document_from_case(const CaseSpec& spec, bool with_defaults);
+// the filled defaults are included (marked is_default) for display. Without
+// `with_studies` the variants and the sweep are left out (a variant's own
+// document needs neither, and copying them into each would make resolving
+// every variant quadratic in their number).
+[[nodiscard]] CaseDocument document_from_case(const CaseSpec& spec, bool with_defaults,
+                                              bool with_studies = true);
 
 // The document as TOML; entries marked is_default are written as comments.
 [[nodiscard]] std::string render_case_document(const CaseDocument& document);
@@ -103,5 +123,10 @@ struct ChangeTarget {
 
 // The cross checks that need the whole case (names, materials, geometry).
 void check_case(const CaseSpec& spec, Problems& problems);
+
+// The checks that make a case the mesher can honour (case_limits.hpp):
+// smallest features, the size of the mesh, the averaging radius, and the
+// mesher's own validation of the stack. For a case that passed check_case.
+void check_mesher_accepts(const CaseSpec& spec, Problems& problems);
 
 }  // namespace plystrain::casefile

@@ -3,12 +3,14 @@
 // checked against its range and choices here.
 #include "case_document.hpp"
 
+#include "plystrain/solver/case_limits.hpp"
+#include "plystrain/solver/input_text.hpp"
 #include "plystrain/solver/text_distance.hpp"
+#include "plystrain/solver/toml_text_check.hpp"
 
 #include <toml++/toml.h>
 
 #include <cmath>
-#include <regex>
 
 namespace plystrain::casefile {
 
@@ -22,13 +24,8 @@ SourceLocation location_of(const toml::source_region& region, const std::filesys
 // "a string \"abc\"", "an integer 3", "a table", ...
 std::string describe(const toml::node& node) {
   switch (node.type()) {
-    case toml::node_type::string: {
-      std::string text = node.as_string()->get();
-      if (text.size() > 40) {
-        text = text.substr(0, 40) + "...";
-      }
-      return "the string \"" + text + "\"";
-    }
+    case toml::node_type::string:
+      return "the string " + quoted_echo(node.as_string()->get());
     case toml::node_type::integer: return "the integer " + std::to_string(node.as_integer()->get());
     case toml::node_type::floating_point: return "the number " + float_text(node.as_floating_point()->get());
     case toml::node_type::boolean: return node.as_boolean()->get() ? "true" : "false";
@@ -52,9 +49,19 @@ std::optional<double> number_of(const toml::node& node) {
   return std::nullopt;
 }
 
-bool is_name(std::string_view text) {
-  static const std::regex pattern("[a-z0-9-]+");
-  return std::regex_match(text.begin(), text.end(), pattern);
+// The name a [[layer]] or [[variant]] table gives itself, when it is one the
+// key paths of its messages can show; otherwise nothing (the name's own
+// problem is reported on its line).
+std::optional<std::string> usable_name(const toml::table& table) {
+  const toml::node* name = table.get("name");
+  if (name == nullptr || !name->is_string()) {
+    return std::nullopt;
+  }
+  const std::string& text = name->as_string()->get();
+  if (!is_case_name(text) || text.size() > limits::name_characters) {
+    return std::nullopt;
+  }
+  return text;
 }
 
 class DocumentParser {
@@ -90,7 +97,7 @@ class DocumentParser {
       } else if (const KeyInfo* info = find_case_key(CaseSection::top, name)) {
         read_entry(node, *info, name, document_.top);
       } else {
-        unknown_key(where, name, top_names, "the top level");
+        unknown_key(where, "", name, top_names, "the top level");
       }
     }
     // Problems about a table the file does not have still name the file.
@@ -136,11 +143,11 @@ class DocumentParser {
     }
   }
 
-  void unknown_key(const SourceLocation& where, const std::string& path,
+  // `name` as written in the file; `label` is the key path of its table.
+  void unknown_key(const SourceLocation& where, const std::string& label, const std::string& name,
                    const std::vector<std::string>& known, std::string_view place) {
-    const std::size_t dot = path.rfind('.');
-    const std::string name = dot == std::string::npos ? path : path.substr(dot + 1);
-    std::string message = "unknown key \"" + name + "\" in " + std::string(place);
+    const std::string path = label.empty() ? echoed(name) : label + "." + echoed(name);
+    std::string message = "unknown key " + quoted_echo(name) + " in " + std::string(place);
     const std::string hint = closest_match(name, known);
     if (!hint.empty()) {
       message += " (did you mean \"" + hint + "\"?)";
@@ -155,13 +162,12 @@ class DocumentParser {
     const std::vector<std::string> known = case_key_names(section);
     for (auto&& [key, node] : table) {
       const std::string name(key.str());
-      const std::string path = label + "." + name;
       if (const KeyInfo* info = find_case_key(section, name)) {
-        read_entry(node, *info, path, target);
+        read_entry(node, *info, label + "." + name, target);
       } else {
         const bool repeated = section == CaseSection::layer || section == CaseSection::defect;
         const std::string table_name(section_name(section));
-        unknown_key(location_of(key.source(), file_), path, known,
+        unknown_key(location_of(key.source(), file_), label, name, known,
                     repeated ? "[[" + table_name + "]]" : "[" + table_name + "]");
       }
     }
@@ -175,7 +181,17 @@ class DocumentParser {
                     "expected one or more tables [[" + name + "]], found " + describe(node));
       return;
     }
-    for (std::size_t i = 0; i < array->size(); ++i) {
+    const std::size_t most = name == "layer"    ? limits::layers
+                             : name == "defect" ? limits::defects
+                                                : limits::variants;
+    if (array->size() > most) {
+      // Only the first are read: checking the rest would take time in
+      // proportion to a flood of them.
+      problems_.add(location_of(array->get(most)->source(), file_), name,
+                    "expected at most " + grouped_count(most) + " [[" + name + "]] tables, found " +
+                        grouped_count(array->size()) + " (this is the first past the limit)");
+    }
+    for (std::size_t i = 0; i < std::min(array->size(), most); ++i) {
       const toml::table& table = *array->get(i)->as_table();
       if (name == "variant") {
         pending_variants_.emplace_back(&table, location_of(table.source(), file_));
@@ -187,11 +203,8 @@ class DocumentParser {
       std::string label = CaseDocument::defect_label(i);
       if (is_layer) {
         // Name the layer in key paths when its name is readable.
-        const toml::node* layer_name = table.get("name");
-        label = (layer_name != nullptr && layer_name->is_string() &&
-                 is_name(layer_name->as_string()->get()))
-                    ? "layer." + layer_name->as_string()->get()
-                    : "layer[" + std::to_string(i + 1) + "]";
+        const std::optional<std::string> layer_name = usable_name(table);
+        label = layer_name ? "layer." + *layer_name : "layer[" + std::to_string(i + 1) + "]";
       }
       read_table(table, is_layer ? CaseSection::layer : CaseSection::defect, label,
                  tables.back());
@@ -344,9 +357,8 @@ class DocumentParser {
     static_cast<SourceLocation&>(variant.where) = where;
     const std::size_t number = document_.variants.size() + 1;
     std::string label = "variant[" + std::to_string(number) + "]";
-    if (const toml::node* name = table.get("name");
-        name != nullptr && name->is_string() && is_name(name->as_string()->get())) {
-      label = "variant." + name->as_string()->get();
+    if (const std::optional<std::string> name = usable_name(table)) {
+      label = "variant." + *name;
     }
     const std::vector<std::string> known = case_key_names(CaseSection::variant);
     bool has_name = false;
@@ -356,10 +368,15 @@ class DocumentParser {
       const SourceLocation node_where = location_of(node.source(), file_);
       const KeyInfo* info = find_case_key(CaseSection::variant, name);
       if (info == nullptr) {
-        unknown_key(location_of(key.source(), file_), path, known, "[[variant]]");
+        unknown_key(location_of(key.source(), file_), label, name, known, "[[variant]]");
       } else if (name == "set") {
         if (const toml::table* changes = node.as_table()) {
           read_changes(*changes, "", path, variant.set);
+          if (variant.set.size() > info->max_items) {
+            problems_.add(node_where, path,
+                          "expected at most " + grouped_count(info->max_items) +
+                              " changes, found " + grouped_count(variant.set.size()));
+          }
         } else {
           problems_.add(node_where, path,
                         "expected a table of \"path\" = value, found " + describe(node));
@@ -396,11 +413,17 @@ class DocumentParser {
       const std::string path = prefix.empty() ? std::string(key.str())
                                               : prefix + "." + std::string(key.str());
       if (const toml::table* nested = node.as_table()) {
+        // Recursion is bounded: the text check limited the nesting.
+        if (nested->empty()) {
+          problems_.add(location_of(key.source(), file_), label + "." + echoed(path),
+                        "expected a value for the path " + quoted_echo(path) +
+                            ", found an empty table (a change must name a key)");
+        }
         read_changes(*nested, path, label, changes);
         continue;
       }
       std::optional<SetChange> change =
-          read_change(node, path, label + "." + path, location_of(key.source(), file_));
+          read_change(node, path, label + "." + echoed(path), location_of(key.source(), file_));
       if (change) {
         changes.push_back(std::move(*change));
       }
@@ -431,7 +454,7 @@ class DocumentParser {
     for (auto&& [key, node] : table) {
       const std::string name(key.str());
       if (find_case_key(CaseSection::sweep, name) == nullptr) {
-        unknown_key(location_of(key.source(), file_), "sweep." + name, known, "[sweep]");
+        unknown_key(location_of(key.source(), file_), "sweep", name, known, "[sweep]");
       }
     }
     document_.sweep = sweep;
@@ -452,7 +475,12 @@ class DocumentParser {
       return;
     }
     sweep.parameter = {parameter->as_string()->get(), parameter_where, true};
-    std::string problem;
+    std::string problem = check_value(CaseValue{sweep.parameter.value},
+                                      *find_case_key(CaseSection::sweep, "parameter"));
+    if (!problem.empty()) {
+      problems_.add(parameter_where, "sweep.parameter", problem);
+      return;
+    }
     const std::optional<ChangeTarget> target =
         resolve_change_path(sweep.parameter.value, document_, problem);
     if (!target) {
@@ -472,6 +500,13 @@ class DocumentParser {
       if (array == nullptr || array->empty()) {
         problems_.add(location_of(values->source(), file_), "sweep.values",
                       "expected a non-empty array of values, found " + describe(*values));
+        return;
+      }
+      if (array->size() > limits::sweep_values) {
+        // Each value is a whole case to check: a flood is refused unread.
+        problems_.add(location_of(values->source(), file_), "sweep.values",
+                      "expected at most " + grouped_count(limits::sweep_values) +
+                          " values, found " + grouped_count(array->size()));
         return;
       }
       for (std::size_t i = 0; i < array->size(); ++i) {
@@ -542,72 +577,20 @@ class DocumentParser {
   }
 };
 
-// Finds the first byte that makes `text` not a plain UTF-8 text file.
-std::optional<InputProblem> check_text(std::string_view text, const std::filesystem::path& file) {
-  const auto at = [&file, &text](std::size_t offset, const std::string& message) {
-    int line = 1;
-    int column = 1;
-    for (std::size_t i = 0; i < offset; ++i) {
-      if (text[i] == '\n') {
-        ++line;
-        column = 1;
-      } else if ((static_cast<unsigned char>(text[i]) & 0xC0) != 0x80) {
-        ++column;
-      }
-    }
-    return InputProblem{SourceLocation{file.string(), line, column}, "", message};
-  };
-  if (text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
-    return InputProblem{SourceLocation{file.string(), 0, 0}, "",
+}  // namespace
+
+std::optional<InputProblem> text_problem(std::string_view text, const std::filesystem::path& file) {
+  if (text.size() <= limits::case_file_bytes &&
+      text.find_first_not_of(" \t\r\n") == std::string_view::npos) {
+    return InputProblem{SourceLocation{file.string(), 1, 1}, "",
                         "the case file is empty (expected at least `format = 1`, [geometry], "
                         "[[layer]] and [load])"};
   }
-  std::size_t i = 0;
-  while (i < text.size()) {
-    const auto byte = static_cast<unsigned char>(text[i]);
-    if (byte == 0) {
-      return at(i, "the file is not text: it holds a NUL byte");
-    }
-    int length = 0;
-    std::uint32_t code = 0;
-    if (byte < 0x80) {
-      ++i;
-      continue;
-    } else if ((byte & 0xE0) == 0xC0) {
-      length = 2;
-      code = byte & 0x1Fu;
-    } else if ((byte & 0xF0) == 0xE0) {
-      length = 3;
-      code = byte & 0x0Fu;
-    } else if ((byte & 0xF8) == 0xF0) {
-      length = 4;
-      code = byte & 0x07u;
-    } else {
-      return at(i, "the file is not valid UTF-8 text");
-    }
-    if (i + static_cast<std::size_t>(length) > text.size()) {
-      return at(i, "the file is not valid UTF-8 text (a character is cut off)");
-    }
-    for (int k = 1; k < length; ++k) {
-      const auto next = static_cast<unsigned char>(text[i + static_cast<std::size_t>(k)]);
-      if ((next & 0xC0) != 0x80) {
-        return at(i, "the file is not valid UTF-8 text");
-      }
-      code = (code << 6) | (next & 0x3Fu);
-    }
-    const std::uint32_t smallest[] = {0, 0, 0x80, 0x800, 0x10000};
-    if (code < smallest[length] || code > 0x10FFFF || (code >= 0xD800 && code <= 0xDFFF)) {
-      return at(i, "the file is not valid UTF-8 text (an invalid character)");
-    }
-    i += static_cast<std::size_t>(length);
-  }
-  return std::nullopt;
+  return toml_text_problem(text, file.string());
 }
 
-}  // namespace
-
 CaseDocument parse_case_document(std::string_view text, const std::filesystem::path& file) {
-  if (const std::optional<InputProblem> problem = check_text(text, file)) {
+  if (const std::optional<InputProblem> problem = text_problem(text, file)) {
     throw InputError({*problem});
   }
   toml::table root;

@@ -1,6 +1,7 @@
 #include "plystrain/solver/case_variants.hpp"
 
 #include "case_document.hpp"
+#include "plystrain/solver/input_text.hpp"
 
 #include <set>
 
@@ -62,14 +63,37 @@ bool loses_defect(const Table& defect, const std::vector<Table>& layers,
   return false;
 }
 
+// A change to a layer the variant removes, or to a defect that goes with
+// it, would be silently lost: it is a mistake in the variant.
+void check_changes_kept(
+    const CaseDocument& document,
+    const std::vector<std::pair<const SetChange*, casefile::ChangeTarget>>& targets,
+    const std::set<std::string>& removed, const std::string& set_path) {
+  casefile::Problems problems;
+  for (const auto& [change, target] : targets) {
+    const std::string key = set_path + "." + echoed(change->path);
+    if (target.section == CaseSection::layer &&
+        removed.count(name_of(document.layers[target.index])) > 0) {
+      problems.add(change->where, key,
+                   "expected a layer the variant keeps, found \"" +
+                       name_of(document.layers[target.index]) + "\", which it removes");
+    } else if (target.section == CaseSection::defect &&
+               loses_defect(document.defects[target.index], document.layers, removed)) {
+      problems.add(change->where, key,
+                   "expected a defect the variant keeps, found one that goes with a layer it "
+                   "removes");
+    }
+  }
+  problems.throw_if_any();
+}
+
 CaseSpec apply(const CaseSpec& base, const std::vector<SetChange>& changes,
                const std::vector<Located<std::string>>& remove, const std::string& run_name,
                const std::string& context) {
-  CaseDocument document = casefile::document_from_case(base, false);
-  document.variants.clear();
-  document.sweep.reset();
+  CaseDocument document = casefile::document_from_case(base, false, false);
   casefile::Problems problems;
   bool sets_out = false;
+  std::vector<std::pair<const SetChange*, casefile::ChangeTarget>> targets;
   for (const SetChange& change : changes) {
     std::string problem;
     const std::optional<casefile::ChangeTarget> target =
@@ -81,6 +105,7 @@ CaseSpec apply(const CaseSpec& base, const std::vector<SetChange>& changes,
     casefile::target_table(document, *target).entries[std::string(target->key->name)] =
         casefile::Entry{change.value, change.where, false, true};
     sets_out = sets_out || change.path == "report.out";
+    targets.emplace_back(&change, *target);
   }
   problems.throw_if_any();
   drop_inapplicable(document);
@@ -89,6 +114,7 @@ CaseSpec apply(const CaseSpec& base, const std::vector<SetChange>& changes,
   for (const Located<std::string>& name : remove) {
     removed.insert(name.value);
   }
+  check_changes_kept(document, targets, removed, "variant." + run_name + ".set");
   std::erase_if(document.defects, [&](const Table& defect) {
     return loses_defect(defect, document.layers, removed);
   });
@@ -103,7 +129,7 @@ CaseSpec apply(const CaseSpec& base, const std::vector<SetChange>& changes,
     for (InputProblem& problem : located) {
       problem.message += " (in " + context + ")";
     }
-    throw InputError(located);
+    throw InputError(located, error.not_listed());
   }
   if (!sets_out) {
     spec.report.out = {base.report.out.value / run_name, base.report.out.where, true};
@@ -140,11 +166,11 @@ std::vector<ResolvedCase> resolve_sweep(const CaseSpec& base) {
   for (std::size_t i = 0; i < base.sweep->values.size(); ++i) {
     const SetChange& change = base.sweep->values[i];
     const std::string name = "sweep-" + std::to_string(i + 1);
-    resolved.push_back(ResolvedCase{
-        name, change.path + " = " + case_value_text(change.value),
-        apply(base, {change}, {}, name,
-              "sweep value " + std::to_string(i + 1) + " (" + change.path + " = " +
-                  case_value_text(change.value) + ")")});
+    resolved.push_back(
+        ResolvedCase{name, change.path + " = " + case_value_text(change.value),
+                     apply(base, {change}, {}, name,
+                           "sweep value " + std::to_string(i + 1) + " (" + echoed(change.path) +
+                               " = " + echoed(case_value_text(change.value)) + ")")});
   }
   return resolved;
 }

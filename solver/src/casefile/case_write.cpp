@@ -11,8 +11,11 @@ namespace {
 
 class DocumentWriter {
  public:
-  DocumentWriter(const CaseSpec& spec, bool with_defaults)
-      : spec_(spec), with_defaults_(with_defaults), scale_(micrometres_per(spec.units.value)) {}
+  DocumentWriter(const CaseSpec& spec, bool with_defaults, bool with_studies)
+      : spec_(spec),
+        with_defaults_(with_defaults),
+        with_studies_(with_studies),
+        scale_(micrometres_per(spec.units.value)) {}
 
   CaseDocument run() {
     document_.source = spec_.source;
@@ -71,8 +74,10 @@ class DocumentWriter {
     }
     write_load();
     write_mesh_and_report();
-    document_.variants = spec_.variants;
-    document_.sweep = spec_.sweep;
+    if (with_studies_) {
+      document_.variants = spec_.variants;
+      document_.sweep = spec_.sweep;
+    }
     if (with_defaults_) {
       drop_defaults_that_do_not_apply();
     }
@@ -82,6 +87,7 @@ class DocumentWriter {
  private:
   const CaseSpec& spec_;
   bool with_defaults_;
+  bool with_studies_;
   double scale_;
   CaseDocument document_;
 
@@ -215,8 +221,8 @@ std::string quoted_key(const std::string& path) { return value_text(CaseValue{pa
 
 }  // namespace
 
-CaseDocument document_from_case(const CaseSpec& spec, bool with_defaults) {
-  return DocumentWriter(spec, with_defaults).run();
+CaseDocument document_from_case(const CaseSpec& spec, bool with_defaults, bool with_studies) {
+  return DocumentWriter(spec, with_defaults, with_studies).run();
 }
 
 std::string render_case_document(const CaseDocument& document) {

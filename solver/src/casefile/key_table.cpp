@@ -1,5 +1,7 @@
 #include "plystrain/solver/key_table.hpp"
 
+#include "plystrain/solver/case_limits.hpp"
+
 #include <algorithm>
 #include <charconv>
 #include <sstream>
@@ -44,6 +46,8 @@ std::vector<KeyInfo> build_table() {
   const KeyCondition strip_only{"geometry.shape", {"strip"}};
   std::vector<KeyInfo> keys;
   const auto add = [&keys](KeyInfo info) { keys.push_back(std::move(info)); };
+  // The most elements an array key takes (case_limits.hpp), for the key just added.
+  const auto items_at_most = [&keys](std::size_t count) { keys.back().max_items = count; };
 
   // Top level.
   add({.section = S::top, .name = "format", .kind = V::integer, .required = true,
@@ -59,6 +63,7 @@ std::vector<KeyInfo> build_table() {
        .unit = U::path, .settable = false,
        .help = "extra material files, relative to the case file, merged over the built-in "
                "library (a later file wins)"});
+  items_at_most(limits::material_files);
 
   // [geometry]
   add({.section = S::geometry, .name = "shape", .kind = V::choice, .required = true,
@@ -184,6 +189,7 @@ std::vector<KeyInfo> build_table() {
        .help = "bending radius of the stack's neutral plane, or an array of radii run one "
                "after another (e.g. [5000, -5000]); positive: the top of the stack is on the "
                "convex side; |radius| must exceed the stack thickness"});
+  items_at_most(limits::bend_radii);
   add({.section = S::load, .name = "surface", .kind = V::choice, .required = true,
        .default_text = "required", .choices = plain({"sphere", "ellipsoid", "profile"}),
        .applies_when = {conform},
@@ -200,6 +206,7 @@ std::vector<KeyInfo> build_table() {
        .applies_when = {conform, {"surface", {"profile"}}},
        .help = "surface height as [r, z] pairs: at least two, r starting at 0 and "
                "increasing, z not increasing"});
+  items_at_most(limits::profile_points);
   add({.section = S::load, .name = "method", .kind = V::choice,
        .fixed_default = CaseValue{std::string{"wrap"}}, .default_text = "\"wrap\"",
        .choices = plain({"wrap", "press"}), .applies_when = {conform},
@@ -264,10 +271,14 @@ std::vector<KeyInfo> build_table() {
                "name without extension, or the folder name for a file called case.toml. "
                "Variants and sweep runs write into a sub-directory named after them"});
   add({.section = S::report, .name = "averaging_radius", .kind = V::length,
-       .default_text = "half the thinnest layer", .min = at_least(0), .unit = U::length,
+       .default_text = "half the thinnest layer, at most half the smallest defect",
+       .min = at_least(0), .unit = U::length,
        .help = "strain is averaged over a disc of this radius (in the cross-section, within "
                "the same layer) before its peak is taken, so that a reported peak converges "
-               "under mesh refinement; 0 reports the raw integration-point peak"});
+               "under mesh refinement; 0 reports the raw integration-point peak. At most the "
+               "thickness of the thinnest layer and half the size of the smallest defect: a "
+               "wider disc averages the concentration away. Where the raw peak would give "
+               "another verdict, the run says so"});
   add({.section = S::report, .name = "fields", .kind = V::boolean,
        .fixed_default = CaseValue{true}, .default_text = "true",
        .help = "write ParaView files (a .vtu per converged increment and one .pvd)"});
@@ -292,11 +303,15 @@ std::vector<KeyInfo> build_table() {
        .settable = false,
        .help = "layers left out; a defect in a removed layer, and a delamination whose "
                "interface loses either face, is left out with it"});
+  items_at_most(limits::layers);
   add({.section = S::variant, .name = "set", .kind = V::table, .default_text = "{}",
        .settable = false,
        .help = "changes as `\"path\" = value`, applied before `remove`; paths: "
                "`layer.<name>.<key>`, `defect.<index from 1>.<key>`, `geometry.<key>`, "
-               "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`"});
+               "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`. A path must name a key "
+               "(a nested table of no key is an error) of a layer or defect the variant "
+               "keeps"});
+  items_at_most(limits::changes_per_variant);
 
   // [sweep]
   add({.section = S::sweep, .name = "parameter", .kind = V::text, .required = true,
@@ -305,6 +320,7 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::sweep, .name = "values", .kind = V::values,
        .default_text = "required unless `from`, `to`, `count`", .settable = false,
        .help = "the values, each checked like the key it sets"});
+  items_at_most(limits::sweep_values);
   add({.section = S::sweep, .name = "from", .kind = V::number, .default_text = "none",
        .settable = false, .help = "first value of a linear range (with `to` and `count`)"});
   add({.section = S::sweep, .name = "to", .kind = V::number, .default_text = "none",
@@ -312,6 +328,7 @@ std::vector<KeyInfo> build_table() {
   add({.section = S::sweep, .name = "count", .kind = V::integer, .default_text = "none",
        .min = at_least(2), .max = at_most(1000), .unit = U::count, .settable = false,
        .help = "number of values of a linear range, ends included"});
+  keys.back().max = at_most(static_cast<double>(limits::sweep_values));  // as many as `values`
   return keys;
 }
 

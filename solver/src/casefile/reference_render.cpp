@@ -2,6 +2,8 @@
 // generated, never edited by hand: a test compares it with this output.
 #include "plystrain/solver/key_table.hpp"
 
+#include "plystrain/solver/case_limits.hpp"
+
 #include <sstream>
 
 namespace plystrain {
@@ -47,6 +49,27 @@ std::string choice_notes(const KeyInfo& key) {
   return notes;
 }
 
+std::string item_note(const KeyInfo& key) {
+  return key.max_items == 0 ? "" : " At most " + std::to_string(key.max_items) + ".";
+}
+
+void render_limits(std::ostringstream& page) {
+  page << "## Limits\n\n"
+       << "A case past any of these is refused by `check` (and so by every command) with\n"
+       << "`file:line:column`, the key and the limit. They keep a mistaken or hostile\n"
+       << "file from crashing, hanging or flooding the reader, and `check` from passing\n"
+       << "a case the mesher or the solver cannot honour. Messages escape control\n"
+       << "characters (`\\u001B`), shorten long values to their first 60 characters\n"
+       << "and a count, and list at most 5 errors of one kind and 20 in all, then say how\n"
+       << "many more there are.\n\n"
+       << "| what | limit | why |\n"
+       << "|---|---|---|\n";
+  for (const limits::LimitRow& row : limits::limit_rows()) {
+    page << "| " << cell(row.what) << " | " << cell(row.limit) << " | " << cell(row.why) << " |\n";
+  }
+  page << "\n";
+}
+
 void render_section(std::ostringstream& page, CaseSection section, std::string_view heading,
                     std::string_view intro) {
   page << "## " << heading << "\n\n";
@@ -60,9 +83,9 @@ void render_section(std::ostringstream& page, CaseSection section, std::string_v
       continue;
     }
     page << "| `" << key.name << "` | " << cell(key.type_text()) << " | "
-         << cell(key.required ? "required" : key.default_text) << " | " << unit_text(key)
-         << " | " << cell(key.applies_text()) << " | " << (key.settable ? "yes" : "no") << " | "
-         << cell(std::string(key.help) + "." + choice_notes(key)) << " |\n";
+         << cell(key.required ? "required" : key.default_text) << " | " << unit_text(key) << " | "
+         << cell(key.applies_text()) << " | " << (key.settable ? "yes" : "no") << " | "
+         << cell(std::string(key.help) + "." + choice_notes(key) + item_note(key)) << " |\n";
   }
   page << "\n";
 }
@@ -112,6 +135,7 @@ std::string render_case_format_reference() {
                  "A sweep runs the base case once per value of one settable key. Give "
                  "either `values` or all of `from`, `to` and `count` (numbers and lengths "
                  "only).");
+  render_limits(page);
   page << "## Example\n\n"
        << "See `cases/*/case.toml`; every example case is checked by the tests.\n";
   return page.str();

@@ -68,6 +68,7 @@ Json layer_json(const LayerResult& layer, const OutputUnit& unit) {
   out["crack_onset_load_factor"] = optional_number(layer.crack_onset_load_factor);
   out["yield_load_factor"] = optional_number(layer.yield_load_factor);
   out["verdict"] = verdict_name(layer.verdict);
+  out["raw_peak_verdict"] = verdict_name(layer.raw_peak_verdict);
   return out;
 }
 

@@ -1,6 +1,7 @@
 #include "plystrain/solver/case_summary.hpp"
 
 #include "plystrain/materials/law.hpp"
+#include "plystrain/solver/input_text.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -168,7 +169,8 @@ std::string format_case_summary(const CaseSpec& spec) {
   const LengthUnit unit = spec.units.value;
   std::ostringstream out;
   out << spec.title.value << "\n";
-  out << "  case file: " << spec.source.string() << "\n";
+  // The path is the user's to name; it is shown, not obeyed, by a terminal.
+  out << "  case file: " << escape_control_characters(spec.source.string()) << "\n";
   out << "  shape: " << shape_name(spec.geometry.shape.value);
   if (spec.geometry.shape.value == Shape::strip) {
     out << (spec.geometry.symmetric.value ? ", symmetric about x = 0, half-width "

@@ -28,6 +28,11 @@ namespace plystrain {
 [[nodiscard]] CaseSpec read_case_text(std::string_view text, const std::filesystem::path& file,
                                       const MaterialLibrary& library);
 
+// The number of cells the case's mesh will have, estimated from the stack
+// and the mesh sizes before meshing (an upper estimate; the reader refuses a
+// case past limits::mesh_cells).
+[[nodiscard]] double estimated_mesh_cells(const CaseSpec& spec);
+
 // The case's material files, resolved relative to the case file.
 [[nodiscard]] std::vector<std::filesystem::path> case_material_paths(const CaseSpec& spec);
 

@@ -64,6 +64,7 @@ struct KeyInfo {
   std::string_view default_text{};    // the default as the reference shows it
   std::optional<ValueBound> min{};    // for numbers, each element of arrays too
   std::optional<ValueBound> max{};
+  std::size_t max_items = 0;  // arrays: most elements allowed (0: no limit of its own)
   std::vector<KeyChoice> choices{};
   UnitKind unit = UnitKind::none;
   std::vector<KeyCondition> applies_when{};  // all must hold; empty: always applies

@@ -38,7 +38,11 @@ struct LayerResult {
   double thickness = 0.0;            // um
   double peak_strain = 0.0;          // averaged over report.averaging_radius
   std::array<double, 2> peak_at{};   // reference coordinates (x or r, z), um
-  double raw_peak_strain = 0.0;      // integration-point peak (log only)
+  double raw_peak_strain = 0.0;      // integration-point peak
+  // The verdict the raw peak would give. When it differs from `verdict`, the
+  // averaging over report.averaging_radius decided the verdict, and the run
+  // says so (a caution and results.json's layers[].raw_peak_verdict).
+  Verdict raw_peak_verdict = Verdict::unknown;
   // Strain of the undisturbed state (the stack without its defects under
   // the same load) in this layer at the peak's place.
   double far_field_strain = 0.0;

@@ -63,6 +63,12 @@ struct UndisturbedState {
                                                        const solver::PointResults& points,
                                                        const UndisturbedState* undisturbed);
 
+// One caution per layer whose averaged and raw peaks disagree about its
+// verdict (crack or yield): the averaging radius then decides the verdict,
+// and a reader must know it.
+[[nodiscard]] std::vector<std::string> averaging_cautions(const CaseSpec& spec,
+                                                          const std::vector<LayerResult>& layers);
+
 // How far along x (or r) the evaluation reaches (the whole width: the loaded
 // edges are consistent with the homogeneous or pure-bending state).
 [[nodiscard]] double evaluated_extent(const CaseSpec& spec);
