@@ -31,16 +31,26 @@ extern "C" void on_stop_signal(int signal) {
   static_cast<void>(ignored);
 }
 
-}  // namespace
-
-InterruptHandlers::InterruptHandlers() {
-  stop_signal = 0;
+// Catches `signal` unless it was ignored when the program started (a job a
+// shell script put in the background ignores Ctrl-C, and stays so).
+void catch_unless_ignored(int signal, struct sigaction& previous) {
+  sigaction(signal, nullptr, &previous);
+  if (previous.sa_handler == SIG_IGN) {
+    return;
+  }
   struct sigaction action {};
   action.sa_handler = on_stop_signal;
   sigemptyset(&action.sa_mask);
   action.sa_flags = SA_RESTART;
-  sigaction(SIGINT, &action, &previous_interrupt_);
-  sigaction(SIGTERM, &action, &previous_terminate_);
+  sigaction(signal, &action, nullptr);
+}
+
+}  // namespace
+
+InterruptHandlers::InterruptHandlers() {
+  stop_signal = 0;
+  catch_unless_ignored(SIGINT, previous_interrupt_);
+  catch_unless_ignored(SIGTERM, previous_terminate_);
 }
 
 InterruptHandlers::~InterruptHandlers() {

@@ -85,6 +85,10 @@ class ChildRun {
   [[noreturn]] static void run_child(const std::vector<std::string>& arguments,
                                      const std::string& error_file, const int pipe_ends[2]) {
     ::close(pipe_ends[0]);
+    // As a shell starts a command in the foreground, whatever the test
+    // runner ignores.
+    ::signal(SIGINT, SIG_DFL);
+    ::signal(SIGTERM, SIG_DFL);
     ::dup2(pipe_ends[1], STDOUT_FILENO);
     const int error_fd = ::open(error_file.c_str(), O_WRONLY | O_CREAT | O_TRUNC, 0644);
     ::dup2(error_fd, STDERR_FILENO);
