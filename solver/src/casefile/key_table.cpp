@@ -42,6 +42,25 @@ std::vector<KeyChoice> plain(std::initializer_list<std::string_view> names) {
   return choices;
 }
 
+// The averaging radius, with the limits that keep its meaning
+// (case_limits.hpp; checked with the mesh, case_mesh_checks.cpp).
+KeyInfo averaging_radius_key() {
+  KeyInfo key;
+  key.section = S::report;
+  key.name = "averaging_radius";
+  key.kind = V::length;
+  key.default_text = "half the thinnest layer, at most half the smallest defect";
+  key.min = at_least(0);
+  key.unit = U::length;
+  key.help =
+      "strain is averaged over a disc of this radius (in the cross-section, within the same "
+      "layer) before its peak is taken, so that a reported peak converges under mesh "
+      "refinement; 0 reports the raw integration-point peak. At most the thickness of the "
+      "thinnest layer and half the size of the smallest defect: a wider disc averages the "
+      "concentration away. Where the raw peak would give another verdict, the run says so";
+  return key;
+}
+
 std::vector<KeyInfo> build_table() {
   const KeyCondition strip_only{"geometry.shape", {"strip"}};
   std::vector<KeyInfo> keys;
@@ -270,15 +289,7 @@ std::vector<KeyInfo> build_table() {
        .help = "output directory, relative to the case file; the case name is the file "
                "name without extension, or the folder name for a file called case.toml. "
                "Variants and sweep runs write into a sub-directory named after them"});
-  add({.section = S::report, .name = "averaging_radius", .kind = V::length,
-       .default_text = "half the thinnest layer, at most half the smallest defect",
-       .min = at_least(0), .unit = U::length,
-       .help = "strain is averaged over a disc of this radius (in the cross-section, within "
-               "the same layer) before its peak is taken, so that a reported peak converges "
-               "under mesh refinement; 0 reports the raw integration-point peak. At most the "
-               "thickness of the thinnest layer and half the size of the smallest defect: a "
-               "wider disc averages the concentration away. Where the raw peak would give "
-               "another verdict, the run says so"});
+  add(averaging_radius_key());
   add({.section = S::report, .name = "fields", .kind = V::boolean,
        .fixed_default = CaseValue{true}, .default_text = "true",
        .help = "write ParaView files (a .vtu per converged increment and one .pvd)"});
@@ -308,9 +319,7 @@ std::vector<KeyInfo> build_table() {
        .settable = false,
        .help = "changes as `\"path\" = value`, applied before `remove`; paths: "
                "`layer.<name>.<key>`, `defect.<index from 1>.<key>`, `geometry.<key>`, "
-               "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`. A path must name a key "
-               "(a nested table of no key is an error) of a layer or defect the variant "
-               "keeps"});
+               "`load.<key>`, `mesh.<key>`, `report.<key>`, `title`"});
   items_at_most(limits::changes_per_variant);
 
   // [sweep]

@@ -127,7 +127,9 @@ std::string render_case_format_reference() {
   render_section(page, CaseSection::variant, "`[[variant]]` (zero or more)",
                  "A variant is the base case with a few changes; each is read back through "
                  "the same checks as the base case. A `set` value is checked against the "
-                 "key it sets; errors point at the `set` line. When a `set` changes a key "
+                 "key it sets; errors point at the `set` line. A path must end in a key (a "
+                 "nested table of no key is an error) of a layer or defect the variant keeps. "
+                 "When a `set` changes a key "
                  "that decides which others apply (for example `load.kind`), base keys that "
                  "no longer apply are dropped and the variant must set the keys the new "
                  "choice requires. Defect indices count from 1 in the base case.");
