@@ -209,8 +209,9 @@ void check_full_depth_press(const std::string& case_file, double sphere_radius) 
   CHECK(results["load_reached"].get<double>() == Approx(1.0));
   check_against_membrane(read_profiles(out / "profiles.csv"), ring_radius, sphere_radius, sphere_radius);
   // The path's cost, as a guard against a continuation that crawls:
-  // measured 1,200-1,400 Newton iterations on this mesh.
-  CHECK(results["solver"]["newton_iterations"].get<int>() < 2000);
+  // measured 1,000-1,050 Newton iterations on this mesh (1,200-1,400 with a
+  // line search on the residual norm).
+  CHECK(results["solver"]["newton_iterations"].get<int>() < 1300);
   std::filesystem::remove_all(out);
 }
 

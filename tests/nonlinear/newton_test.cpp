@@ -175,3 +175,80 @@ TEST_CASE("Displacement control finds the load on the falling branch of the trus
   REQUIRE(result.last_factorization.negative_pivots.has_value());
   CHECK(*result.last_factorization.negative_pivots == 1);
 }
+
+// E(q) = (q - 3)^2 / 2 + k/2 max(q - 1, 0)^2: a unit spring pulling towards
+// 3 against a stiff penalty wall at 1, the one-unknown image of a node
+// pressed onto a rigid surface. Minimiser q* = (3 + k) / (1 + k), a closed
+// form. From q = 0 the first Newton step (tangent 1) lands deep behind the
+// wall, where the residual is k times larger than at the start while the
+// energy's slope along the step changes sign just past the wall.
+class PenaltyWall : public plystrain::solver::NonlinearSystem {
+ public:
+  explicit PenaltyWall(double stiffness) : stiffness_(stiffness) {}
+  [[nodiscard]] int size() const override { return 1; }
+  plystrain::solver::Evaluation evaluate(const Eigen::VectorXd& q, double, Eigen::VectorXd& residual,
+                                         plystrain::solver::SparseMatrix* tangent) override {
+    const double behind = std::max(q(0) - 1.0, 0.0);
+    residual = Eigen::VectorXd::Constant(1, q(0) - 3.0 + stiffness_ * behind);
+    if (tangent != nullptr) {
+      tangent->resize(1, 1);
+      tangent->setZero();
+      tangent->insert(0, 0) = 1.0 + (behind > 0.0 ? stiffness_ : 0.0);
+      tangent->makeCompressed();
+    }
+    return {};
+  }
+  [[nodiscard]] double energy(double q) const {
+    const double behind = std::max(q - 1.0, 0.0);
+    return 0.5 * (q - 3.0) * (q - 3.0) + 0.5 * stiffness_ * behind * behind;
+  }
+
+ private:
+  double stiffness_;
+};
+
+TEST_CASE("The energy-slope line search stops a step at a penalty wall", "[newton]") {
+  constexpr double stiffness = 1e4;
+  PenaltyWall wall(stiffness);
+  DirectSparseSolver solver;
+  const Eigen::VectorXd start = Eigen::VectorXd::Zero(1);
+  NewtonOptions by_norm;
+  by_norm.max_iterations = 60;
+  by_norm.progress_window = 0;
+  NewtonOptions by_slope = by_norm;
+  by_slope.line_search_merit = plystrain::solver::LineSearchMerit::energy_slope;
+
+  const auto norm_result = solve_newton(wall, solver, start, 1.0, by_norm);
+  const auto slope_result = solve_newton(wall, solver, start, 1.0, by_slope);
+  const double exact = (3.0 + stiffness) / (1.0 + stiffness);
+  REQUIRE(norm_result.converged());
+  REQUIRE(slope_result.converged());
+  CHECK(slope_result.q(0) == Approx(exact).epsilon(1e-12));
+  CHECK(norm_result.q(0) == Approx(exact).epsilon(1e-12));
+  // The slope search finds the wall within its first step; the norm search
+  // creeps towards it by a tenth of the step at a time.
+  CHECK(slope_result.iterations.size() <= 5);  // the converged state included
+  INFO("norm search: " << norm_result.iterations.size() << " records");
+  CHECK(norm_result.iterations.size() > slope_result.iterations.size() + 3);
+  // Every accepted step lowers the energy.
+  double q = 0.0;
+  for (const auto& record : slope_result.iterations) {
+    const double next = q + (record.increment_norm > 0.0 ? record.increment_norm : 0.0);
+    CHECK(wall.energy(next) <= wall.energy(q) + 1e-12);
+    q = next;
+  }
+}
+
+TEST_CASE("The energy-slope line search also solves the arctangent from afar", "[newton]") {
+  // atan(q - c) is the gradient of a convex energy; full Newton steps
+  // diverge from |q - c| > 1.39 (see test_systems.hpp).
+  const Eigen::VectorXd centres = Eigen::VectorXd::Constant(1, 0.5);
+  ArctangentSystem system(centres);
+  DirectSparseSolver solver;
+  NewtonOptions options;
+  options.max_iterations = 30;
+  options.line_search_merit = plystrain::solver::LineSearchMerit::energy_slope;
+  const auto result = solve_newton(system, solver, Eigen::VectorXd::Constant(1, 3.0), 1.0, options);
+  REQUIRE(result.converged());
+  CHECK((result.q - centres).norm() < 1e-10);
+}

@@ -155,6 +155,13 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
       // hemisphere: with four iterations allowed to halve the residual, 17
       // cut-backs more and the path stops at 90 % of the travel).
       options.newton.progress_window = 8;
+      // Where a node meets the surface within a step, the penalty force
+      // makes the residual norm jump while the energy hardly moves: the
+      // search follows the energy (the press is conservative: hyperelastic
+      // layers, frictionless or bonded penalty contact on a rigid surface).
+      options.newton.line_search_merit = solver::LineSearchMerit::energy_slope;
+      options.easy_iterations = 15;
+      options.newton.max_iterations = 40;
     }
   }
   // A residual below 1e-11 of the force that would strain the whole section

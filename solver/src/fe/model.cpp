@@ -688,9 +688,30 @@ bool Model::update_active_set(const Eigen::VectorXd& q, double load_factor) {
   return changed;
 }
 
+namespace {
+
+// The touching set of the frictionless surface-contact nodes at the state z.
+std::vector<FrictionlessTouch> touching_set(const ModelImpl& impl, const Eigen::VectorXd& z, double load_factor) {
+  std::vector<FrictionlessTouch> touch(impl.surface_nodes.size(), FrictionlessTouch::by_gap);
+  for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
+    const SurfaceContactNode& node = impl.surface_nodes[k];
+    const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
+    if (contact.kind == SurfaceContactKind::frictionless) {
+      const SurfacePoint nearest =
+          nearest_surface_point(contact, placement_at(contact, load_factor), impl.current_position(node.node, z));
+      touch[k] = nearest.gap < 0.0 ? FrictionlessTouch::held_closed : FrictionlessTouch::held_open;
+    }
+  }
+  return touch;
+}
+
+}  // namespace
+
 Evaluation Model::load_derivative(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& derivative) {
   ModelImpl& impl = *impl_;
-  if (impl.surface_nodes.empty()) {
+  if (impl.surface_nodes.empty() || !impl.held_touch.empty()) {
+    // No contact, or a set held by hold_touch_at: the derivative of the
+    // equations with that set.
     return NonlinearSystem::load_derivative(q, load_factor, derivative);
   }
   // The difference step moves a rigid surface by step * d(lift)/d(lambda),
@@ -698,21 +719,24 @@ Evaluation Model::load_derivative(const Eigen::VectorXd& q, double load_factor, 
   // press): a node that touches at lambda would drop out at lambda - step and
   // its whole force would enter the derivative. Held at lambda's touching
   // set, the derivative is the one of the equations Newton linearises.
-  const Eigen::VectorXd z = impl.variables(q, load_factor);
-  impl.held_touch.assign(impl.surface_nodes.size(), FrictionlessTouch::by_gap);
-  for (std::size_t k = 0; k < impl.surface_nodes.size(); ++k) {
-    const SurfaceContactNode& node = impl.surface_nodes[k];
-    const SurfaceContact& contact = impl.definition.surface_contacts[static_cast<std::size_t>(node.contact)];
-    if (contact.kind == SurfaceContactKind::frictionless) {
-      const SurfacePoint nearest =
-          nearest_surface_point(contact, placement_at(contact, load_factor), impl.current_position(node.node, z));
-      impl.held_touch[k] = nearest.gap < 0.0 ? FrictionlessTouch::held_closed : FrictionlessTouch::held_open;
-    }
-  }
+  impl.held_touch = touching_set(impl, impl.variables(q, load_factor), load_factor);
   const Evaluation result = NonlinearSystem::load_derivative(q, load_factor, derivative);
   impl.held_touch.clear();
   return result;
 }
+
+bool Model::hold_touch_at(const Eigen::VectorXd& q, double load_factor) {
+  ModelImpl& impl = *impl_;
+  if (impl.surface_nodes.empty()) {
+    return false;
+  }
+  std::vector<FrictionlessTouch> touch = touching_set(impl, impl.variables(q, load_factor), load_factor);
+  const bool changed = touch != impl.held_touch;
+  impl.held_touch = std::move(touch);
+  return changed;
+}
+
+void Model::release_touch() { impl_->held_touch.clear(); }
 
 void Model::accept_increment(const Eigen::VectorXd&, double) {
   impl_->accepted_contact_closed = impl_->contact_closed;

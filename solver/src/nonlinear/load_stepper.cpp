@@ -127,7 +127,46 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
     if (!linear_solver.solve(-(residual + load_step * load_column), change).ok) {
       return false;
     }
+    // Contact: the straight step pushes the surface through the nodes just
+    // outside the touching set (and leaves the penalty to push them back
+    // out, which costs Newton many short steps). Linearised about the set
+    // the step predicts, the predictor lands near the new contact front; a
+    // few rounds settle that set (a semi-smooth Newton iteration on the
+    // linearised equations).
+    constexpr int touch_rounds = 4;
+    const double target_load = current.load_factor + load_step;
+    system.hold_touch_at(current.q, current.load_factor);
+    const Eigen::VectorXd straight_change = change;
+    bool touch_changed = false;
+    for (int round = 0; round < touch_rounds && system.hold_touch_at(current.q + change, target_load); ++round) {
+      touch_changed = true;
+      SparseMatrix tangent;
+      factor_at_current = false;
+      if (!system.evaluate(current.q, current.load_factor, residual, &tangent).ok() ||
+          !system.load_derivative(current.q, current.load_factor, load_column).ok() ||
+          !linear_solver.factorize(tangent, options.newton.symmetry).ok() ||
+          !linear_solver.solve(-(residual + load_step * load_column), change).ok) {
+        system.release_touch();
+        return false;
+      }
+    }
+    system.release_touch();
     q = current.q + change;
+    if (touch_changed) {
+      // Kept only where it is the better start (a released node can make
+      // the linearised step overshoot).
+      Eigen::VectorXd trial_residual;
+      const auto norm_at = [&](const Eigen::VectorXd& point) {
+        const Evaluation evaluation = system.evaluate(point, target_load, trial_residual, nullptr);
+        const double norm = evaluation.ok() ? trial_residual.norm() : std::numeric_limits<double>::infinity();
+        return std::isfinite(norm) ? norm : std::numeric_limits<double>::infinity();
+      };
+      Eigen::VectorXd straight = current.q + straight_change;
+      if (norm_at(straight) < norm_at(q)) {
+        q.swap(straight);
+        change = straight_change;
+      }
+    }
     // Near a defect the path q(lambda) bends sharply (large local rotations),
     // and the straight tangent step lands far from it. The quadratic through
     // the previous converged state with the tangent slope at the current one
@@ -139,7 +178,6 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
     const double ratio = last_load_step != 0.0 ? load_step / last_load_step : 0.0;
     if (previous && ratio > 0.0 && ratio <= longest_extrapolation) {
       Eigen::VectorXd curved = q + (ratio * ratio) * (previous->q - current.q + change / ratio);
-      const double target_load = current.load_factor + load_step;
       Eigen::VectorXd trial_residual;
       const auto norm_at = [&](const Eigen::VectorXd& point) {
         const Evaluation evaluation = system.evaluate(point, target_load, trial_residual, nullptr);

@@ -276,6 +276,8 @@ class Model final : public NonlinearSystem {
   // Newton iterates again at the same load.
   bool update_active_set(const Eigen::VectorXd& q, double load_factor) override;
   Evaluation load_derivative(const Eigen::VectorXd& q, double load_factor, Eigen::VectorXd& derivative) override;
+  bool hold_touch_at(const Eigen::VectorXd& q, double load_factor) override;
+  void release_touch() override;
   void accept_increment(const Eigen::VectorXd& q, double load_factor) override;
   void begin_attempt() override;
 

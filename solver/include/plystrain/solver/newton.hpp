@@ -40,6 +40,8 @@ namespace plystrain::solver {
 // correction passes the increment test and whose residual is below
 // stalled_residual_tolerance * r_ref is then accepted as converged
 // (NewtonResult::stalled_at_rounding says so).
+enum class LineSearchMerit { residual_norm, energy_slope };
+
 struct NewtonOptions {
   int max_iterations = 25;
   double residual_tolerance = 1e-8;
@@ -65,7 +67,21 @@ struct NewtonOptions {
   // kept within [0.1 a, 0.5 a]. Trial points use residual-only evaluations.
   // An evaluation failure at a trial point (an inverted element) counts as
   // no decrease. When no factor passes, the smallest one tried is taken.
+  // With line_search_merit = energy_slope (for systems whose residual is the
+  // gradient of an energy: hyperelastic solids, frictionless penalty contact
+  // on rigid surfaces, dead loads), the factor is instead the root of the
+  // energy's slope along the step, s(a) = dq . R(q + a dq): accepted where
+  // |s(a)| <= slope_tolerance |s(0)|, or at a = 1 when the energy is still
+  // falling there, found by regula falsi (Illinois) on [0, 1]; Crisfield,
+  // Non-linear Finite Element Analysis of Solids and Structures, vol. 1
+  // (1991), section 9.3. Where penalty contact switches on along a step the
+  // residual norm jumps with the penalty while the energy barely moves, and
+  // the norm-based search keeps cutting a converging step to a tenth. Used
+  // for load-controlled steps with a descent direction (s(0) < 0); otherwise
+  // the search falls back to the residual norm.
   bool line_search = true;
+  LineSearchMerit line_search_merit = LineSearchMerit::residual_norm;
+  double slope_tolerance = 0.5;
   int max_line_search_steps = 8;
   double sufficient_decrease = 1e-4;
 

@@ -48,6 +48,13 @@ class NonlinearSystem {
   virtual Evaluation load_derivative(const Eigen::VectorXd& q, double load_factor,
                                      Eigen::VectorXd& derivative);
 
+  // Contact: evaluations until release_touch() use the touching set of the
+  // state (q, lambda) instead of deciding it afresh at each point. A
+  // predictor uses it to linearise the equations about the set it predicts.
+  // Returns whether the held set changed; false for a system without one.
+  virtual bool hold_touch_at(const Eigen::VectorXd& /*q*/, double /*load_factor*/) { return false; }
+  virtual void release_touch() {}
+
   // Called once an increment has converged, e.g. to update contact states.
   virtual void accept_increment(const Eigen::VectorXd& /*q*/, double /*load_factor*/) {}
 
