@@ -76,7 +76,11 @@ Command add_mesh_command(CLI::App& app) {
 
             prepare_output_folder(out, output.source);
             write_path_atomically(out / "mesh.msh", [&](const std::filesystem::path& temporary) {
-              mesh::write_msh(session, temporary);
+              try {
+                mesh::write_msh(session, temporary);
+              } catch (const mesh::MeshError& error) {
+                throw OutputWriteError(out / "mesh.msh", error.what());
+              }
               return true;
             });
             solver::write_mesh_vtu(grid, out / "mesh.vtu");

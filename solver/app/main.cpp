@@ -2,6 +2,7 @@
 // errors to the documented exit codes.
 #include "commands.hpp"
 
+#include "plystrain/solver/atomic_file.hpp"
 #include "plystrain/solver/input_error.hpp"
 
 #include <exception>
@@ -31,6 +32,12 @@ int report_exception() {
   } catch (const InputError& error) {
     std::cerr << error.what() << "\n";
     return exit_bad_input;
+  } catch (const OutputWriteError& error) {
+    std::cerr << "plystrain: " << error.what()
+              << "\nNo file was left half-written, and an output folder keeps the run it held "
+                 "before; free some space (or raise the file-size limit) and run again, or write "
+                 "elsewhere with --out.\n";
+    return exit_internal_error;
   } catch (const std::bad_alloc&) {
     std::cerr << "plystrain: out of memory: the model does not fit into this machine's memory; "
                  "coarser mesh sizes (mesh.size_near, mesh.size_far) or a narrower width need "

@@ -2,6 +2,7 @@
 // into its output folder (output_folder.hpp), and its exit code.
 #include "commands.hpp"
 
+#include "plystrain/solver/atomic_file.hpp"
 #include "plystrain/solver/input_error.hpp"
 
 #include <exception>
@@ -55,6 +56,10 @@ int run_into_output_folder(const OutputChoice& output,
     code = work(staged.path());
   } catch (const InputError&) {
     throw;  // nothing was solved: the folder keeps what it held
+  } catch (const OutputWriteError&) {
+    // The disk refused a file: what was written is incomplete, and the
+    // folder keeps what it held (the hidden folder goes, freeing its space).
+    throw;
   } catch (...) {
     // A failed run keeps what it finished, as a run that stopped early does.
     try {

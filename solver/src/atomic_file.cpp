@@ -1,5 +1,7 @@
 #include "plystrain/solver/atomic_file.hpp"
 
+#include <cerrno>
+#include <cstring>
 #include <fstream>
 #include <stdexcept>
 #include <string>
@@ -41,13 +43,19 @@ void write_file_atomically(const std::filesystem::path& target, std::string_view
     if (!out) {
       throw std::runtime_error("cannot open " + temporary.string() + " for writing");
     }
+    errno = 0;
     out.write(contents.data(), static_cast<std::streamsize>(contents.size()));
     out.flush();
+    if (out) {
+      out.close();
+    }
     if (!out) {
+      // The stream keeps no reason; the failed write(2) left it in errno.
+      const int reason = errno;
       out.close();
       std::error_code ignored;
       std::filesystem::remove(temporary, ignored);
-      throw std::runtime_error("cannot write " + target.string() + " (disk full?)");
+      throw OutputWriteError(target, reason != 0 ? std::strerror(reason) : "the write failed");
     }
   }
   rename_into_place(temporary, target);

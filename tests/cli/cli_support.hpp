@@ -24,8 +24,9 @@ inline std::string read_text(const std::filesystem::path& path) {
   return text.str();
 }
 
-// Runs `plystrain <arguments>` with stdout and stderr captured in files.
-inline CommandResult run_plystrain(const std::string& arguments) {
+// Runs `plystrain <arguments>` with stdout and stderr captured in files;
+// shell_setup (shell commands such as a ulimit) runs first, in the same shell.
+inline CommandResult run_plystrain(const std::string& arguments, const std::string& shell_setup = "") {
   const std::filesystem::path scratch =
       std::filesystem::temp_directory_path() /
       ("plystrain-cli-" + std::to_string(::getpid()) + "-" +
@@ -33,7 +34,7 @@ inline CommandResult run_plystrain(const std::string& arguments) {
   std::filesystem::create_directories(scratch);
   const std::filesystem::path out = scratch / "out.txt";
   const std::filesystem::path err = scratch / "err.txt";
-  const std::string command = std::string("'") + PLYSTRAIN_BINARY_PATH + "' " + arguments + " >'" +
+  const std::string command = shell_setup + std::string("'") + PLYSTRAIN_BINARY_PATH + "' " + arguments + " >'" +
                               out.string() + "' 2>'" + err.string() + "' </dev/null";
   const int status = std::system(command.c_str());
   CommandResult result;

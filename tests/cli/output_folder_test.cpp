@@ -147,3 +147,38 @@ TEST_CASE("a run replaces the meshes that mesh wrote into the same folder", "[cl
   CHECK_FALSE(fs::exists(out / "mesh.msh"));
   fs::remove_all(scratch);
 }
+
+TEST_CASE("a write the disk refuses is named, and the output folder keeps its earlier run",
+          "[cli][output]") {
+  // A file-size limit (RLIMIT_FSIZE) stands in for a full disk: the write
+  // fails with EFBIG where it would fail with ENOSPC. SIGXFSZ is ignored, as
+  // a process that wants the error instead of the signal must (POSIX
+  // setrlimit).
+  const std::string small_files = "ulimit -f 4; trap '' XFSZ; ";
+  const fs::path scratch = fresh_output_dir("output-write-refused");
+  const fs::path file = strip_case(scratch, "strip.toml", "");
+  const fs::path out = scratch / "out";
+  REQUIRE(run_plystrain("run " + in_quotes(file) + " --out " + in_quotes(out)).exit_code == 0);
+  const std::string earlier = read_text(out / "results.json");
+
+  const auto run = run_plystrain("run " + in_quotes(file) + " --out " + in_quotes(out), small_files);
+  INFO(run.err);
+  CHECK(run.exit_code == 1);
+  CHECK(run.err.find("plystrain: cannot write ") == 0);
+  CHECK(run.err.find("File too large") != std::string::npos);
+  CHECK(run.err.find("internal error") == std::string::npos);
+  CHECK(read_text(out / "results.json") == earlier);
+  for (const auto& entry : fs::directory_iterator(scratch)) {
+    CHECK(entry.path().filename().string().find(".partial") == std::string::npos);
+  }
+
+  // Gmsh reports nothing when its write fails; the mesh command checks the
+  // file it left and keeps no truncated mesh.
+  const fs::path meshes = scratch / "meshes";
+  const auto mesh = run_plystrain("mesh " + in_quotes(file) + " --out " + in_quotes(meshes), small_files);
+  INFO(mesh.err);
+  CHECK(mesh.exit_code == 1);
+  CHECK(mesh.err.find("cannot write " + (meshes / "mesh.msh").string()) != std::string::npos);
+  CHECK_FALSE(fs::exists(meshes / "mesh.msh"));
+  fs::remove_all(scratch);
+}

@@ -1,16 +1,13 @@
 #include "plystrain/solver/mesh_vtu_writer.hpp"
 
+#include "plystrain/solver/atomic_file.hpp"
+#include "vtu_grid.hpp"
+
 #include <vtkCellType.h>
-#include <vtkIntArray.h>
-#include <vtkCellData.h>
 #include <vtkNew.h>
 #include <vtkPoints.h>
 #include <vtkUnstructuredGrid.h>
-#include <vtkXMLUnstructuredGridWriter.h>
 
-#include <array>
-#include <stdexcept>
-#include <system_error>
 
 namespace plystrain::solver {
 
@@ -35,40 +32,8 @@ void write_mesh_vtu(const mesh::Mesh& mesh, const std::filesystem::path& path) {
     const Eigen::Vector2d& x = mesh.nodes[static_cast<std::size_t>(n)];
     points->SetPoint(n, x.x(), x.y(), 0.0);
   }
-  vtkNew<vtkUnstructuredGrid> grid;
-  grid->SetPoints(points);
-  grid->Allocate(mesh.cell_count());
-  vtkNew<vtkIntArray> layer;
-  layer->SetName("layer");
-  layer->SetNumberOfComponents(1);
-  layer->SetNumberOfTuples(mesh.cell_count());
-  std::array<vtkIdType, mesh::max_nodes_per_cell> ids{};
-  for (int c = 0; c < mesh.cell_count(); ++c) {
-    const mesh::Cell& cell = mesh.cells[static_cast<std::size_t>(c)];
-    for (int i = 0; i < cell.size(); ++i) {
-      ids[static_cast<std::size_t>(i)] = cell.nodes[static_cast<std::size_t>(i)];
-    }
-    grid->InsertNextCell(vtk_cell_type(cell.type), cell.size(), ids.data());
-    layer->SetValue(c, cell.region);
-  }
-  grid->GetCellData()->AddArray(layer);
-
-  const std::filesystem::path temporary = path.string() + ".partial";
-  vtkNew<vtkXMLUnstructuredGridWriter> writer;
-  writer->SetFileName(temporary.string().c_str());
-  writer->SetInputData(grid);
-  // The default appended raw data is not well-formed XML.
-  writer->SetDataModeToBinary();
-  if (writer->Write() != 1) {
-    std::error_code ignored;
-    std::filesystem::remove(temporary, ignored);
-    throw std::runtime_error("cannot write " + path.string());
-  }
-  std::error_code error;
-  std::filesystem::rename(temporary, path, error);
-  if (error) {
-    throw std::runtime_error("cannot write " + path.string() + ": " + error.message());
-  }
+  const auto grid = io::layered_cell_grid(mesh, points, [](int, int node) { return vtkIdType{node}; });
+  write_file_atomically(path, io::vtu_file_text(grid, io::VtuCompression::zlib));
 }
 
 }  // namespace plystrain::solver

@@ -3,12 +3,23 @@
 
 #include <filesystem>
 #include <functional>
+#include <stdexcept>
+#include <string>
 #include <string_view>
 
 namespace plystrain {
 
+// A file of the results could not be written (disk full, a file-size limit,
+// an I/O error): not the case's fault nor the program's.
+class OutputWriteError : public std::runtime_error {
+ public:
+  OutputWriteError(const std::filesystem::path& file, const std::string& reason)
+      : std::runtime_error("cannot write " + file.string() + ": " + reason) {}
+};
+
 // Writes `contents` to a temporary file beside `target`, then renames it over
-// `target`. Throws std::runtime_error (naming the file) when it cannot write;
+// `target`. Throws OutputWriteError (naming the file and the system's reason)
+// when it cannot write, std::runtime_error when it cannot open or rename;
 // the target is then left as it was.
 void write_file_atomically(const std::filesystem::path& target, std::string_view contents);
 
