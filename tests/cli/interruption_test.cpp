@@ -15,6 +15,7 @@
 #include <regex>
 #include <set>
 #include <string>
+#include <vector>
 
 namespace {
 
@@ -22,10 +23,12 @@ namespace fs = std::filesystem;
 using plystrain::test::ChildRun;
 using plystrain::test::read_text;
 
-nlohmann::json results_in(const fs::path& folder) {
-  std::ifstream in(folder / "results.json");
+nlohmann::json results_in_file(const fs::path& file) {
+  std::ifstream in(file);
   return nlohmann::json::parse(in);
 }
+
+nlohmann::json results_in(const fs::path& folder) { return results_in_file(folder / "results.json"); }
 
 std::set<std::string> step_files_in(const fs::path& folder) {
   std::set<std::string> names;
@@ -154,5 +157,47 @@ TEST_CASE("an interrupted rerun over a complete run leaves one run: its own, par
   CHECK(results["interrupted_by"] == "SIGTERM");
   check_one_run(out, slow_title);
   CHECK(hidden_beside(out) == 0);
+  fs::remove_all(scratch);
+}
+
+TEST_CASE("an interrupted comparison or sweep ends after the run it stopped, with the runs so far",
+          "[cli][interrupt]") {
+  const fs::path scratch = plystrain::test::fresh_output_dir("interrupt-studies");
+  fs::create_directories(scratch);
+  const std::string slow_text = read_text(plystrain::test::data_path("cli/interrupt-strip.toml"));
+  struct Study {
+    const char* command;
+    const char* extra;
+    const char* table;       // the combined table's JSON file
+    const char* first_run;   // folder of the run the signal stops
+    const char* second_run;  // folder of the run that must not start
+  };
+  const std::vector<Study> studies = {
+      {"compare", "\n[[variant]]\nname = \"thicker\"\nset = { \"layer.sheet.thickness\" = 6.0 }\n",
+       "comparison.json", "base", "thicker"},
+      {"run", "\n[sweep]\nparameter = \"load.strain\"\nvalues = [0.1, 0.05]\n", "sweep.json", "sweep-1",
+       "sweep-2"},
+  };
+  for (const Study& study : studies) {
+    INFO(study.command);
+    const fs::path case_file = scratch / (std::string(study.command) + ".toml");
+    std::ofstream(case_file) << slow_text << study.extra;
+    const fs::path out = scratch / (std::string(study.command) + "-out");
+    int code = 0;
+    {
+      ChildRun child({study.command, case_file.string(), "--out", out.string()}, "/dev/null");
+      REQUIRE(child.wait_for("increment 1:", std::chrono::seconds(120)));
+      child.send(SIGINT);
+      code = child.finish();
+    }
+    CHECK(code == 4);
+    const nlohmann::json table = results_in_file(out / study.table);
+    REQUIRE(table["runs"].size() == 1);
+    CHECK(table["runs"][0]["completed"] == false);
+    CHECK(table["runs"][0]["load_reached"].get<double>() < 0.5);
+    CHECK(results_in(out / study.first_run)["interrupted_by"] == "SIGINT");
+    CHECK_FALSE(fs::exists(out / study.second_run));
+    CHECK(hidden_beside(out) == 0);
+  }
   fs::remove_all(scratch);
 }
