@@ -17,6 +17,7 @@ Command add_check_command(CLI::App& app) {
   check->add_option("CASE", *case_path, "The case file (TOML)")->required();
   return {check, [case_path] {
             const CaseSpec spec = read_case(*case_path);
+            check_reruns_fit(spec, false);
             std::cout << format_case_summary(spec);
             std::cout << "\nThe case is valid.\n";
             return exit_done;

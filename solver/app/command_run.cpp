@@ -75,6 +75,7 @@ Command add_run_command(CLI::App& app) {
                     "how far each peak moved (as report.verify in the case)");
   return {command, [options, verify] {
             const CaseSpec spec = read_case(options->case_path);
+            check_reruns_fit(spec, *verify);
             const OutputChoice output = output_choice(options->out, spec);
             const InterruptHandlers interrupts;
             return run_into_output_folder(output, [&](const std::filesystem::path& out) {

@@ -3,12 +3,67 @@
 #include "commands.hpp"
 
 #include "plystrain/solver/atomic_file.hpp"
+#include "plystrain/solver/case_limits.hpp"
+#include "plystrain/solver/case_reader.hpp"
+#include "plystrain/solver/case_variants.hpp"
+#include "plystrain/solver/convergence_check.hpp"
 #include "plystrain/solver/input_error.hpp"
 
+#include <cmath>
 #include <exception>
+#include <string>
 #include <utility>
 
 namespace plystrain::cli {
+
+namespace {
+
+// Digits in groups of three, as the case checks print counts.
+std::string grouped(long long value) {
+  std::string digits = std::to_string(value);
+  for (int at = static_cast<int>(digits.size()) - 3; at > 0; at -= 3) {
+    digits.insert(static_cast<std::size_t>(at), ",");
+  }
+  return digits;
+}
+
+// The convergence check reruns the case on a mesh with half the sizes,
+// about four times the cells: refused before anything is solved when that
+// rerun would pass the mesh limit that check applies to the case itself.
+void check_one_case_reruns_fit(const CaseSpec& spec, bool verify_flag) {
+  if (!verify_flag && !spec.report.verify.value) {
+    return;
+  }
+  for (const ConvergenceRerunPlan& plan : convergence_reruns(spec)) {
+    const double cells = estimated_mesh_cells(plan.spec);
+    if (cells <= limits::mesh_cells) {
+      continue;
+    }
+    const bool by_key = !verify_flag && spec.report.verify.given;
+    SourceLocation where = by_key ? spec.report.verify.where : spec.title.where;
+    if (!by_key) {
+      where.line = 0;
+      where.column = 0;
+    }
+    const std::string count = grouped(static_cast<long long>(std::llround(cells)));
+    throw InputError(where, by_key ? "report.verify" : "--verify",
+                     "the convergence check would rerun the case with its " + plan.what + ", about " +
+                         count + " cells, more than the limit of " + grouped(static_cast<long long>(limits::mesh_cells)) +
+                         "; larger mesh sizes or a narrower width leave room for it, or run without the check");
+  }
+}
+
+}  // namespace
+
+void check_reruns_fit(const CaseSpec& spec, bool verify_flag) {
+  if (!spec.sweep) {
+    check_one_case_reruns_fit(spec, verify_flag);
+    return;
+  }
+  for (const ResolvedCase& value : resolve_sweep(spec)) {
+    check_one_case_reruns_fit(value.spec, verify_flag);
+  }
+}
 
 void add_out_option(CLI::App& command, std::string& out) {
   command.add_option("--out", out, "Output directory (default: the case's report.out)")

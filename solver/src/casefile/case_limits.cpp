@@ -56,7 +56,9 @@ std::vector<LimitRow> limit_rows() {
            "and at least 0.1 nm",
        "past it the cells along the film are more than 10^4 times longer than thick, and the "
        "geometry kernel merges points closer than its tolerance"},
-      {"cells of the mesh, estimated from the stack and the mesh sizes",
+      {"cells of the mesh, estimated from the stack and the mesh sizes (with `report.verify` or "
+       "`--verify`, also of the convergence check's reruns: the mesh halved has about four times "
+       "the cells)",
        count(static_cast<std::size_t>(mesh_cells)),
        "about 8 million unknowns with quadratic cells, past the memory of a workstation"},
       {"material files: Young's or initial shear modulus; bulk modulus",
