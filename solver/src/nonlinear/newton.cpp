@@ -1,143 +1,262 @@
 #include "plystrain/solver/newton.hpp"
 
-#include <algorithm>
+#include "line_search.hpp"
+#include "newton_convergence.hpp"
+
 #include <chrono>
-#include <functional>
-#include <optional>
 #include <cmath>
 #include <limits>
+#include <optional>
 #include <string>
-#include <vector>
+#include <utility>
 
 namespace plystrain::solver {
 
 namespace {
 
 using Clock = std::chrono::steady_clock;
+using Failure = std::pair<NewtonStatus, std::string>;
 
 double seconds_since(Clock::time_point start) {
   return std::chrono::duration<double>(Clock::now() - start).count();
 }
 
-constexpr double infinity = std::numeric_limits<double>::infinity();
-
 // The norm used by the merit function; a failed evaluation is "infinitely bad".
 double residual_norm_or_infinity(const Evaluation& evaluation, const Eigen::VectorXd& residual) {
   if (!evaluation.ok()) {
-    return infinity;
+    return std::numeric_limits<double>::infinity();
   }
   const double norm = residual.norm();
-  return std::isfinite(norm) ? norm : infinity;
+  return std::isfinite(norm) ? norm : std::numeric_limits<double>::infinity();
 }
 
+bool path_satisfied(const PathEquation* path, const Eigen::VectorXd& q, double load_factor) {
+  return path == nullptr ||
+         std::abs(path->residual(q, load_factor)) <=
+             1e-10 * (std::abs(path->q_coefficients.dot(q)) + std::abs(path->load_coefficient * load_factor) +
+                      std::abs(path->value)) + 1e-14;
+}
 
-// The outcome of a line search along a Newton step dq: the factor a taken
-// (0 when no trial point could be evaluated), the evaluations beyond the
-// full step, and whether no factor met the search's condition.
-struct LineSearch {
-  double factor = 1.0;
-  int trials = 0;
-  bool failed = false;
-  double smallest_tried = 1.0;
+// One Newton solve: the iterate, its residual and tangent, the trial point of
+// the line search, and the record of the iteration under way.
+class NewtonIteration {
+ public:
+  NewtonIteration(NonlinearSystem& system, LinearSolver& linear_solver, const NewtonOptions& options,
+                  const PathEquation* path, NewtonResult& result)
+      : system_(system), linear_solver_(linear_solver), options_(options), path_(path), result_(result) {
+    const int n = system.size();
+    residual_.resize(n);
+    trial_residual_.resize(n);
+    load_step_.resize(n);
+    load_column_.resize(n);
+    path_step_.resize(n);
+    step_.resize(n);
+    trial_q_.resize(n);
+  }
+
+  // Residual and tangent at the start point; its residual norm.
+  std::optional<Failure> start(double& residual_norm) {
+    const auto start = Clock::now();
+    const Evaluation evaluation = system_.evaluate(result_.q, result_.load_factor, residual_, &tangent_);
+    record_.assemble_seconds = seconds_since(start);
+    if (!evaluation.ok()) {
+      return Failure{NewtonStatus::evaluation_failed,
+                     std::string(status_name(evaluation.status)) + " at the start point: " + evaluation.detail};
+    }
+    residual_norm = residual_.norm();
+    if (!std::isfinite(residual_norm)) {
+      return Failure{NewtonStatus::non_finite, "non-finite residual at the start point"};
+    }
+    return std::nullopt;
+  }
+
+  NewtonIterationRecord& record() { return record_; }
+
+  // After convergence: a system with active sets may change its set; the
+  // new residual norm when it did.
+  std::optional<double> update_active_set(std::optional<Failure>& failure) {
+    if (!system_.update_active_set(result_.q, result_.load_factor)) {
+      return std::nullopt;
+    }
+    ++result_.active_set_updates;
+    const auto start = Clock::now();
+    const Evaluation evaluation = system_.evaluate(result_.q, result_.load_factor, residual_, &tangent_);
+    record_.assemble_seconds += seconds_since(start);
+    if (!evaluation.ok()) {
+      failure = Failure{NewtonStatus::evaluation_failed, std::string(status_name(evaluation.status)) +
+                                                             " after an active-set update: " + evaluation.detail};
+    }
+    return residual_.norm();
+  }
+
+  // The linearised step dq (and d lambda on a path) from the factorized
+  // tangent; the bordered system by block elimination:
+  //   [K  R_l] [dq]    [R]
+  //   [c' l  ] [dl] = -[g],   dq = a + dl b,  a = -K^-1 R,  b = -K^-1 R_l.
+  std::optional<Failure> linearised_step() {
+    result_.last_factorization = linear_solver_.factorize(tangent_, options_.symmetry);
+    const FactorizationReport& factorization = result_.last_factorization;
+    record_.analyse_seconds = factorization.analyse_seconds;
+    record_.factorize_seconds = factorization.factorize_seconds;
+    record_.method = factorization.method;
+    record_.not_positive_definite = factorization.not_positive_definite;
+    record_.negative_pivots = factorization.negative_pivots;
+    if (!factorization.ok()) {
+      return Failure{NewtonStatus::factorization_failed,
+                     std::string(status_name(factorization.status)) + ": " + factorization.detail};
+    }
+    SolveReport solved = linear_solver_.solve(-residual_, load_step_);
+    record_.solve_seconds = solved.seconds;
+    if (!solved.ok) {
+      return Failure{NewtonStatus::solve_failed, solved.detail};
+    }
+    load_change_ = 0.0;
+    if (path_ == nullptr) {
+      step_ = load_step_;
+      return finite_step();
+    }
+    const auto start = Clock::now();
+    const Evaluation evaluation = system_.load_derivative(result_.q, result_.load_factor, load_column_);
+    record_.assemble_seconds += seconds_since(start);
+    if (!evaluation.ok()) {
+      return Failure{NewtonStatus::evaluation_failed,
+                     std::string("load derivative: ") + status_name(evaluation.status) + ": " + evaluation.detail};
+    }
+    solved = linear_solver_.solve(-load_column_, path_step_);
+    record_.solve_seconds += solved.seconds;
+    if (!solved.ok) {
+      return Failure{NewtonStatus::solve_failed, solved.detail};
+    }
+    const double denominator = path_->q_coefficients.dot(path_step_) + path_->load_coefficient;
+    const double numerator =
+        -(path_->residual(result_.q, result_.load_factor) + path_->q_coefficients.dot(load_step_));
+    load_change_ = numerator / denominator;
+    if (!std::isfinite(load_change_) || denominator == 0.0) {
+      return Failure{NewtonStatus::singular_path_equation,
+                     "the path equation is tangent to the solution path (denominator " +
+                         std::to_string(denominator) + ")"};
+    }
+    step_.noalias() = load_step_ + load_change_ * path_step_;
+    return finite_step();
+  }
+
+  // The full step first, with the tangent: when it is accepted (the usual
+  // case) no evaluation is wasted; otherwise the line search's factor, and
+  // the tangent there. Moves the iterate.
+  std::optional<Failure> search_and_move() {
+    factor_ = 1.0;
+    trial_q_.noalias() = result_.q + step_;
+    trial_load_ = result_.load_factor + load_change_;
+    auto start = Clock::now();
+    trial_evaluation_ = system_.evaluate(trial_q_, trial_load_, trial_residual_, &tangent_);
+    record_.assemble_seconds += seconds_since(start);
+    bool tangent_current = trial_evaluation_.ok();
+    if (options_.line_search) {
+      if (std::optional<Failure> failure = line_search(tangent_current)) {
+        return failure;
+      }
+    } else if (!trial_evaluation_.ok()) {
+      return Failure{NewtonStatus::evaluation_failed,
+                     std::string(status_name(trial_evaluation_.status)) + ": " + trial_evaluation_.detail};
+    }
+    if (!tangent_current) {
+      start = Clock::now();
+      const Evaluation evaluation = system_.evaluate(trial_q_, trial_load_, trial_residual_, &tangent_);
+      record_.assemble_seconds += seconds_since(start);
+      if (!evaluation.ok()) {
+        return Failure{NewtonStatus::evaluation_failed,
+                       std::string(status_name(evaluation.status)) + ": " + evaluation.detail};
+      }
+    }
+    record_.line_search_factor = factor_;
+    record_.increment_norm = factor_ * step_norm_;
+    record_.load_factor_change = factor_ * load_change_;
+    result_.q.swap(trial_q_);
+    result_.load_factor = trial_load_;
+    residual_.swap(trial_residual_);
+    return std::nullopt;
+  }
+
+  [[nodiscard]] double residual_norm() const { return residual_.norm(); }
+  [[nodiscard]] double increment() const { return factor_ * step_norm_; }
+
+ private:
+  std::optional<Failure> finite_step() {
+    step_norm_ = step_.norm();
+    if (!std::isfinite(step_norm_)) {
+      return Failure{NewtonStatus::non_finite, "non-finite Newton step"};
+    }
+    return std::nullopt;
+  }
+
+  // Residual only, at the trial point of factor a.
+  bool evaluate_trial(double trial_factor) {
+    trial_q_.noalias() = result_.q + trial_factor * step_;
+    trial_load_ = result_.load_factor + trial_factor * load_change_;
+    const auto start = Clock::now();
+    trial_evaluation_ = system_.evaluate(trial_q_, trial_load_, trial_residual_, nullptr);
+    record_.assemble_seconds += seconds_since(start);
+    return trial_evaluation_.ok();
+  }
+
+  std::optional<Failure> line_search(bool& tangent_current) {
+    // The energy's slope along the step; for load-controlled steps only (a
+    // load-factor change does no work that this slope would see).
+    const double slope_at_start = step_.dot(residual_);
+    const bool by_energy_slope = options_.line_search_merit == LineSearchMerit::energy_slope &&
+                                 path_ == nullptr && slope_at_start < 0.0;
+    const detail::LineSearch search =
+        by_energy_slope
+            ? detail::search_energy_slope(
+                  slope_at_start, trial_evaluation_.ok() ? std::optional(step_.dot(trial_residual_)) : std::nullopt,
+                  [&](double trial_factor) {
+                    return evaluate_trial(trial_factor) ? std::optional(step_.dot(trial_residual_)) : std::nullopt;
+                  },
+                  options_)
+            : detail::search_residual_norm(residual_.norm(),
+                                           residual_norm_or_infinity(trial_evaluation_, trial_residual_),
+                                           [&](double trial_factor) {
+                                             evaluate_trial(trial_factor);
+                                             return residual_norm_or_infinity(trial_evaluation_, trial_residual_);
+                                           },
+                                           options_);
+    record_.line_search_evaluations = search.trials;
+    record_.line_search_failed = search.failed;
+    if (search.factor <= 0.0) {
+      record_.line_search_factor = search.smallest_tried;
+      return Failure{NewtonStatus::evaluation_failed, std::string(status_name(trial_evaluation_.status)) +
+                                                          " at every line-search point: " + trial_evaluation_.detail};
+    }
+    if (search.trials > 0) {
+      factor_ = search.factor;
+      trial_q_.noalias() = result_.q + factor_ * step_;
+      trial_load_ = result_.load_factor + factor_ * load_change_;
+      tangent_current = false;
+    }
+    return std::nullopt;
+  }
+
+  NonlinearSystem& system_;
+  LinearSolver& linear_solver_;
+  const NewtonOptions& options_;
+  const PathEquation* path_;
+  NewtonResult& result_;
+  NewtonIterationRecord record_;
+
+  Eigen::VectorXd residual_;
+  SparseMatrix tangent_;
+  Eigen::VectorXd load_step_;    // K^-1 (-R)
+  Eigen::VectorXd load_column_;  // dR/dlambda
+  Eigen::VectorXd path_step_;    // K^-1 (-dR/dlambda)
+  Eigen::VectorXd step_;
+  double step_norm_ = 0.0;
+  double load_change_ = 0.0;
+  double factor_ = 1.0;
+  Eigen::VectorXd trial_q_;
+  Eigen::VectorXd trial_residual_;
+  double trial_load_ = 0.0;
+  Evaluation trial_evaluation_;
 };
-
-// Backtracking (Armijo) on |R|; see NewtonOptions. residual_at(a) evaluates
-// the trial point and returns its residual norm (infinity on failure).
-LineSearch search_residual_norm(double start_norm, double full_step_norm,
-                                const std::function<double(double)>& residual_at, const NewtonOptions& options) {
-  LineSearch search;
-  double factor = 1.0;
-  double trial_norm = full_step_norm;
-  double accepted_factor = std::isfinite(full_step_norm) ? 1.0 : -1.0;  // smallest factor that could be evaluated
-  while (trial_norm > (1.0 - options.sufficient_decrease * factor) * start_norm) {
-    if (search.trials >= options.max_line_search_steps) {
-      search.failed = true;
-      break;
-    }
-    // Minimiser of the quadratic through f(0) = r^2/2, f'(0) = -r^2 and
-    // f(a) = r_a^2/2, where f = |R|^2/2 and dq is the Newton direction.
-    double next = 0.5 * factor;
-    if (std::isfinite(trial_norm)) {
-      const double r0 = start_norm * start_norm;
-      const double ra = trial_norm * trial_norm;
-      const double curvature = ra - r0 + 2.0 * r0 * factor;
-      if (curvature > 0.0) {
-        next = r0 * factor * factor / curvature;
-      }
-    }
-    factor = std::clamp(next, 0.1 * factor, 0.5 * factor);
-    trial_norm = residual_at(factor);
-    ++search.trials;
-    if (std::isfinite(trial_norm)) {
-      accepted_factor = factor;
-    }
-  }
-  search.smallest_tried = factor;
-  // When nothing passed, keep the smallest factor that could be evaluated.
-  search.factor = search.failed ? std::max(accepted_factor, 0.0) : factor;
-  return search;
-}
-
-// Root of the energy's slope s(a) = dq . R(q + a dq) on [0, 1]; see
-// NewtonOptions::line_search_merit. slope_at(a) evaluates the trial point
-// and returns s(a), or nothing when it cannot be evaluated (an inverted
-// element: the step went too far).
-LineSearch search_energy_slope(double slope_at_start, std::optional<double> full_step_slope,
-                               const std::function<std::optional<double>(double)>& slope_at,
-                               const NewtonOptions& options) {
-  LineSearch search;
-  const double target = options.slope_tolerance * std::abs(slope_at_start);
-  if (full_step_slope && *full_step_slope <= target) {
-    // Still falling at the full step, or close enough to the minimum: no
-    // extrapolation beyond the step Newton proposed.
-    return search;
-  }
-  // The bracket: the energy falls at low (s < 0) and rises beyond high.
-  double low = 0.0;
-  double slope_low = slope_at_start;
-  double high = 1.0;
-  std::optional<double> slope_high = full_step_slope;
-  double smallest_evaluated = full_step_slope ? 1.0 : 0.0;
-  int side = 0;  // which end moved last (the Illinois modification of regula falsi)
-  while (search.trials < options.max_line_search_steps) {
-    double factor = slope_high ? (low * *slope_high - high * slope_low) / (*slope_high - slope_low)
-                               : 0.5 * (low + high);
-    // Keep every trial well inside the bracket, so that it shrinks.
-    const double margin = 0.1 * (high - low);
-    factor = std::clamp(factor, low + margin, high - margin);
-    const std::optional<double> slope = slope_at(factor);
-    ++search.trials;
-    search.smallest_tried = std::min(search.smallest_tried, factor);
-    if (slope) {
-      smallest_evaluated = smallest_evaluated > 0.0 ? std::min(smallest_evaluated, factor) : factor;
-    }
-    if (slope && std::abs(*slope) <= target) {
-      search.factor = factor;
-      return search;
-    }
-    if (slope && *slope < 0.0) {
-      low = factor;
-      slope_low = *slope;
-      if (side == -1 && slope_high) {
-        *slope_high *= 0.5;
-      }
-      side = -1;
-    } else {
-      high = factor;
-      slope_high = slope;  // nothing when it could not be evaluated: bisect
-      if (side == 1) {
-        slope_low *= 0.5;
-      }
-      side = 1;
-    }
-  }
-  // No factor met the tolerance: the last point known to lie where the
-  // energy still falls, else the smallest that could be evaluated.
-  search.failed = true;
-  search.factor = low > 0.0 ? low : smallest_evaluated;
-  return search;
-}
-
 
 }  // namespace
 
@@ -162,98 +281,39 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
   NewtonResult result;
   result.q = q_start;
   result.load_factor = load_factor;
-  const int n = system.size();
-
-  Eigen::VectorXd residual(n);
-  Eigen::VectorXd trial_residual(n);
-  SparseMatrix tangent;
-  Eigen::VectorXd load_step(n);    // K^-1 (-R)
-  Eigen::VectorXd load_column(n);  // dR/dlambda
-  Eigen::VectorXd path_step(n);    // K^-1 (-dR/dlambda)
-  Eigen::VectorXd step(n);
-  Eigen::VectorXd trial_q(n);
-
-  auto fail = [&](NewtonStatus status, std::string detail) {
-    result.status = status;
-    result.detail = std::move(detail);
+  NewtonIteration newton(system, linear_solver, options, path, result);
+  const auto stop = [&](const Failure& failure, bool with_record) {
+    if (with_record) {
+      result.iterations.push_back(newton.record());
+    }
+    result.status = failure.first;
+    result.detail = failure.second;
     return result;
   };
 
-  NewtonIterationRecord record;
-  auto start = Clock::now();
-  Evaluation evaluation = system.evaluate(result.q, result.load_factor, residual, &tangent);
-  record.assemble_seconds = seconds_since(start);
-  if (!evaluation.ok()) {
-    return fail(NewtonStatus::evaluation_failed,
-                std::string(status_name(evaluation.status)) + " at the start point: " + evaluation.detail);
+  double start_norm = 0.0;
+  if (std::optional<Failure> failure = newton.start(start_norm)) {
+    return stop(*failure, false);
   }
-  double residual_norm = residual.norm();
-  if (!std::isfinite(residual_norm)) {
-    return fail(NewtonStatus::non_finite, "non-finite residual at the start point");
-  }
-  double residual_reference = std::max(residual_norm, reference_residual);
-  double residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
-  double increment_reference = 0.0;
-  // From a good predictor the first correction is already tiny, and a test
-  // relative to it alone would ask for corrections below the rounding of q.
-  const double increment_rounding = options.increment_rounding * q_start.norm();
-  double last_increment = infinity;
-  double previous_residual_norm = residual_norm;
-
-  std::vector<double> history;  // residual norm at the start of each iteration
-  std::size_t equations_since = 0;  // index in history of the first iteration on the current equations
+  detail::ConvergenceMonitor monitor(options, start_norm, reference_residual, q_start.norm());
   for (int iteration = 0;; ++iteration) {
-    history.push_back(residual_norm);
+    monitor.start_iteration();
+    NewtonIterationRecord& record = newton.record();
     record.iteration = iteration;
-    record.residual_norm = residual_norm;
+    record.residual_norm = monitor.residual_norm();
     record.load_factor = result.load_factor;
-    result.residual_norm = residual_norm;
+    result.residual_norm = monitor.residual_norm();
 
-    const bool path_satisfied =
-        path == nullptr ||
-        std::abs(path->residual(result.q, result.load_factor)) <=
-            1e-10 * (std::abs(path->q_coefficients.dot(result.q)) + std::abs(path->load_coefficient * result.load_factor) +
-                     std::abs(path->value)) + 1e-14;
-    // The next correction is estimated from the last one and the residual
-    // contraction, so that a step that already solved the equations (a
-    // linear problem) is recognised without one more solve.
-    const double predicted_increment =
-        last_increment * std::min(1.0, residual_norm / std::max(previous_residual_norm, 1e-300));
-    const bool increment_small =
-        iteration > 0 &&
-        predicted_increment <= std::max({options.increment_tolerance * increment_reference, options.increment_floor,
-                                         increment_rounding});
-    // Stalled: no longer contracting (rounding), tiny predicted correction.
-    const bool stalled = increment_small && residual_norm > residual_limit &&
-                         residual_norm >= 0.5 * previous_residual_norm &&
-                         residual_norm <= options.stalled_residual_tolerance * residual_reference;
-    const bool converged = path_satisfied && ((residual_norm <= residual_limit && increment_small) || stalled ||
-                                              residual_norm <= options.residual_floor);
-    result.stalled_at_rounding = converged && stalled;
-    if (converged) {
-      if (system.update_active_set(result.q, result.load_factor)) {
-        // The active set changed: the same load, new equations.
-        ++result.active_set_updates;
-        start = Clock::now();
-        evaluation = system.evaluate(result.q, result.load_factor, residual, &tangent);
-        record.assemble_seconds += seconds_since(start);
-        if (!evaluation.ok()) {
-          result.iterations.push_back(record);
-          return fail(NewtonStatus::evaluation_failed,
-                      std::string(status_name(evaluation.status)) + " after an active-set update: " + evaluation.detail);
-        }
-        residual_norm = residual.norm();
-        last_increment = infinity;
-        record.residual_norm = residual_norm;
-        result.residual_norm = residual_norm;
-        // New equations: their own start residual is the scale (a contact
-        // that closes from a force-free state starts from nothing), and the
-        // progress rule starts over.
-        residual_reference = std::max(residual_reference, residual_norm);
-        residual_limit = std::max(options.residual_tolerance * residual_reference, options.residual_floor);
-        history.back() = residual_norm;
-        equations_since = history.size() - 1;
-      } else {
+    const detail::ConvergenceMonitor::Test test =
+        monitor.test(iteration, path_satisfied(path, result.q, result.load_factor));
+    result.stalled_at_rounding = test.stalled_at_rounding;
+    if (test.converged) {
+      std::optional<Failure> failure;
+      const std::optional<double> new_norm = newton.update_active_set(failure);
+      if (failure) {
+        return stop(*failure, true);
+      }
+      if (!new_norm) {
         result.iterations.push_back(record);
         if (on_iteration) {
           on_iteration(record);
@@ -261,178 +321,30 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
         result.status = NewtonStatus::converged;
         return result;
       }
+      // The active set changed: the same load, new equations.
+      monitor.restart_equations(*new_norm);
+      record.residual_norm = *new_norm;
+      result.residual_norm = *new_norm;
     }
-    if (iteration >= options.max_iterations) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::iteration_limit, "no convergence in " + std::to_string(options.max_iterations) +
-                                                     " iterations (residual " + std::to_string(residual_norm) + ")");
+    if (std::optional<Failure> failure = monitor.stop_reason(iteration)) {
+      return stop(*failure, true);
     }
-    // Not near rounding level, where halving is not to be expected.
-    // The window counts only iterations on the current equations.
-    const std::size_t window = static_cast<std::size_t>(std::max(options.progress_window, 0));
-    const std::size_t current = history.size() - 1;
-    if (window > 0 && current >= equations_since + window &&
-        residual_norm > options.stalled_residual_tolerance * residual_reference &&
-        residual_norm > options.progress_factor * history[current - window]) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::stagnated,
-                  "the residual fell only from " + std::to_string(history[current - window]) +
-                      " to " + std::to_string(residual_norm) + " in " + std::to_string(options.progress_window) +
-                      " iterations");
+    if (std::optional<Failure> failure = newton.linearised_step()) {
+      return stop(*failure, true);
     }
-    if (residual_norm > options.divergence_factor * residual_reference) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::diverged, "residual grew to " + std::to_string(residual_norm) + " from " +
-                                              std::to_string(residual_reference));
+    if (std::optional<Failure> failure = newton.search_and_move()) {
+      return stop(*failure, true);
     }
-
-    // Linearised step.
-    result.last_factorization = linear_solver.factorize(tangent, options.symmetry);
-    const FactorizationReport& factorization = result.last_factorization;
-    record.analyse_seconds = factorization.analyse_seconds;
-    record.factorize_seconds = factorization.factorize_seconds;
-    record.method = factorization.method;
-    record.not_positive_definite = factorization.not_positive_definite;
-    record.negative_pivots = factorization.negative_pivots;
-    if (!factorization.ok()) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::factorization_failed,
-                  std::string(status_name(factorization.status)) + ": " + factorization.detail);
-    }
-    SolveReport solved = linear_solver.solve(-residual, load_step);
-    record.solve_seconds = solved.seconds;
-    if (!solved.ok) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::solve_failed, solved.detail);
-    }
-    double load_change = 0.0;
-    if (path != nullptr) {
-      start = Clock::now();
-      evaluation = system.load_derivative(result.q, result.load_factor, load_column);
-      record.assemble_seconds += seconds_since(start);
-      if (!evaluation.ok()) {
-        result.iterations.push_back(record);
-        return fail(NewtonStatus::evaluation_failed,
-                    std::string("load derivative: ") + status_name(evaluation.status) + ": " + evaluation.detail);
-      }
-      solved = linear_solver.solve(-load_column, path_step);
-      record.solve_seconds += solved.seconds;
-      if (!solved.ok) {
-        result.iterations.push_back(record);
-        return fail(NewtonStatus::solve_failed, solved.detail);
-      }
-      // Block elimination of the bordered system
-      //   [K  R_l] [dq]    [R]
-      //   [c' l  ] [dl] = -[g],   dq = a + dl b,  a = -K^-1 R,  b = -K^-1 R_l.
-      const double denominator = path->q_coefficients.dot(path_step) + path->load_coefficient;
-      const double numerator = -(path->residual(result.q, result.load_factor) + path->q_coefficients.dot(load_step));
-      load_change = numerator / denominator;
-      if (!std::isfinite(load_change) || denominator == 0.0) {
-        result.iterations.push_back(record);
-        return fail(NewtonStatus::singular_path_equation,
-                    "the path equation is tangent to the solution path (denominator " + std::to_string(denominator) + ")");
-      }
-      step.noalias() = load_step + load_change * path_step;
-    } else {
-      step = load_step;
-    }
-    const double step_norm = step.norm();
-    if (!std::isfinite(step_norm)) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::non_finite, "non-finite Newton step");
-    }
-
-    // Full step first, with the tangent: when it is accepted (the usual case)
-    // no evaluation is wasted.
-    double factor = 1.0;
-    trial_q.noalias() = result.q + step;
-    double trial_load = result.load_factor + load_change;
-    start = Clock::now();
-    Evaluation trial_evaluation = system.evaluate(trial_q, trial_load, trial_residual, &tangent);
-    record.assemble_seconds += seconds_since(start);
-    double trial_norm = residual_norm_or_infinity(trial_evaluation, trial_residual);
-    bool tangent_current = trial_evaluation.ok();
-
-    if (options.line_search) {
-      // A trial point: residual only, into trial_q / trial_load / trial_residual.
-      const auto evaluate_trial = [&](double trial_factor) {
-        trial_q.noalias() = result.q + trial_factor * step;
-        trial_load = result.load_factor + trial_factor * load_change;
-        start = Clock::now();
-        trial_evaluation = system.evaluate(trial_q, trial_load, trial_residual, nullptr);
-        record.assemble_seconds += seconds_since(start);
-        return trial_evaluation.ok();
-      };
-      // The energy's slope along the step; for load-controlled steps only
-      // (a load-factor change does no work that this slope would see).
-      const double slope_at_start = step.dot(residual);
-      const bool by_energy_slope = options.line_search_merit == LineSearchMerit::energy_slope &&
-                                   path == nullptr && slope_at_start < 0.0;
-      const LineSearch search =
-          by_energy_slope
-              ? search_energy_slope(
-                    slope_at_start, trial_evaluation.ok() ? std::optional(step.dot(trial_residual)) : std::nullopt,
-                    [&](double trial_factor) {
-                      return evaluate_trial(trial_factor) ? std::optional(step.dot(trial_residual)) : std::nullopt;
-                    },
-                    options)
-              : search_residual_norm(residual_norm, trial_norm,
-                                     [&](double trial_factor) {
-                                       evaluate_trial(trial_factor);
-                                       return residual_norm_or_infinity(trial_evaluation, trial_residual);
-                                     },
-                                     options);
-      record.line_search_evaluations = search.trials;
-      record.line_search_failed = search.failed;
-      if (search.factor <= 0.0) {
-        record.line_search_factor = search.smallest_tried;
-        result.iterations.push_back(record);
-        return fail(NewtonStatus::evaluation_failed, std::string(status_name(trial_evaluation.status)) +
-                                                         " at every line-search point: " + trial_evaluation.detail);
-      }
-      if (search.trials > 0) {
-        factor = search.factor;
-        trial_q.noalias() = result.q + factor * step;
-        trial_load = result.load_factor + factor * load_change;
-        tangent_current = false;
-      }
-    } else if (!trial_evaluation.ok()) {
-      result.iterations.push_back(record);
-      return fail(NewtonStatus::evaluation_failed,
-                  std::string(status_name(trial_evaluation.status)) + ": " + trial_evaluation.detail);
-    }
-
-    if (!tangent_current) {
-      start = Clock::now();
-      evaluation = system.evaluate(trial_q, trial_load, trial_residual, &tangent);
-      record.assemble_seconds += seconds_since(start);
-      if (!evaluation.ok()) {
-        result.iterations.push_back(record);
-        return fail(NewtonStatus::evaluation_failed,
-                    std::string(status_name(evaluation.status)) + ": " + evaluation.detail);
-      }
-    }
-
-    record.line_search_factor = factor;
-    record.increment_norm = factor * step_norm;
-    record.load_factor_change = factor * load_change;
     result.iterations.push_back(record);
     if (on_iteration) {
       on_iteration(record);
     }
-
-    result.q.swap(trial_q);
-    result.load_factor = trial_load;
-    residual.swap(trial_residual);
-    previous_residual_norm = residual_norm;
-    residual_norm = residual.norm();
+    const double residual_norm = newton.residual_norm();
     if (!std::isfinite(residual_norm)) {
-      return fail(NewtonStatus::non_finite, "non-finite residual after iteration " + std::to_string(iteration));
+      return stop({NewtonStatus::non_finite, "non-finite residual after iteration " + std::to_string(iteration)},
+                  false);
     }
-    last_increment = factor * step_norm;
-    if (iteration == 0) {
-      increment_reference = last_increment;
-    }
+    monitor.step_taken(iteration, newton.increment(), residual_norm);
     record = NewtonIterationRecord{};
   }
 }
