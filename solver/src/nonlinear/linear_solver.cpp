@@ -206,6 +206,15 @@ struct DirectSparseSolver::Backend {
   }
 
   // Symbolic analysis for LL' (supernodal) or LDL' (simplicial).
+  // CHOLMOD's supernodal LL' or simplicial LDL' (with the inertia) of the
+  // symmetric matrix; false when it failed or, for LL', the matrix is not
+  // positive definite (the report says which).
+  bool factorize_cholmod(const SparseMatrix& matrix, std::uint64_t pattern, bool supernodal_factor,
+                         FactorizationReport& report);
+  // UMFPACK's LU with partial pivoting; false when it failed (the report says why).
+  bool factorize_lu(const SparseMatrix& matrix, std::uint64_t pattern, bool symmetric_strategy,
+                    FactorizationReport& report);
+
   AnalysisReport analyse_symmetric(const SparseMatrix& matrix, bool want_supernodal, std::uint64_t pattern) {
     const auto start = std::chrono::steady_clock::now();
     cholmod_factor*& factor = want_supernodal ? supernodal : simplicial;
@@ -267,6 +276,118 @@ AnalysisReport DirectSparseSolver::analyse(const SparseMatrix& input, MatrixSymm
   return report;
 }
 
+bool DirectSparseSolver::Backend::factorize_cholmod(const SparseMatrix& matrix, std::uint64_t pattern,
+                                                   bool supernodal_factor, FactorizationReport& report) {
+  Backend& b = *this;
+  const int n = static_cast<int>(matrix.rows());
+  cholmod_factor*& factor = supernodal_factor ? b.supernodal : b.simplicial;
+  const std::uint64_t known = supernodal_factor ? b.supernodal_pattern : b.simplicial_pattern;
+  if (factor == nullptr || known != pattern) {
+    report.pattern_changed = report.pattern_changed || factor != nullptr;
+    const AnalysisReport analysis = b.analyse_symmetric(matrix, supernodal_factor, pattern);
+    report.analysed = true;
+    report.analyse_seconds += analysis.seconds;
+    if (!analysis.ok) {
+      report.status = FactorizationStatus::numerical_failure;
+      report.detail = analysis.detail;
+      return false;
+    }
+  }
+  const auto start = std::chrono::steady_clock::now();
+  cholmod_sparse view = cholmod_view(matrix, 1);
+  b.common.final_ll = supernodal_factor ? 1 : 0;
+  const int success = cholmod_factorize(&view, factor, &b.common);
+  report.factorize_seconds += seconds_since(start);
+  report.method = supernodal_factor ? FactorizationMethod::cholesky_supernodal : FactorizationMethod::ldlt_simplicial;
+  if (success == 0 || b.common.status < CHOLMOD_OK) {
+    report.status = from_cholmod_error(b.common.status);
+    report.detail = std::string(method_name(report.method)) + " failed: " + cholmod_status_text(b.common.status);
+    return false;
+  }
+  const bool broke_down = factor->minor < factor->n;
+  if (supernodal_factor) {
+    if (broke_down) {
+      report.not_positive_definite = true;
+      report.failed_column = static_cast<int>(factor->minor);
+      return false;
+    }
+    report.negative_pivots = 0;
+    report.zero_pivots = 0;
+    report.determinant_sign = 1;
+    return true;
+  }
+  if (broke_down) {
+    report.detail = "LDL' met a zero pivot at column " + std::to_string(factor->minor);
+    return false;
+  }
+  // Simplicial LDL': D(j) is the first entry of column j of L.
+  const auto* column_start = static_cast<const int*>(factor->p);
+  const auto* values = static_cast<const double*>(factor->x);
+  int negative = 0;
+  int zero = 0;
+  for (int j = 0; j < n; ++j) {
+    const double pivot = values[column_start[j]];
+    negative += pivot < 0.0 ? 1 : 0;
+    zero += pivot == 0.0 ? 1 : 0;
+  }
+  report.negative_pivots = negative;
+  report.zero_pivots = zero;
+  report.determinant_sign = zero > 0 ? 0 : (negative % 2 == 0 ? 1 : -1);
+  if (zero > 0) {
+    report.detail = "LDL' has " + std::to_string(zero) + " zero pivots";
+    return false;
+  }
+  return true;
+}
+
+bool DirectSparseSolver::Backend::factorize_lu(const SparseMatrix& matrix, std::uint64_t pattern,
+                                              bool symmetric_strategy, FactorizationReport& report) {
+  Backend& b = *this;
+  if (b.lu_symbolic == nullptr || b.lu_pattern != pattern || b.lu_symmetric_strategy != symmetric_strategy) {
+    report.pattern_changed = report.pattern_changed || b.lu_symbolic != nullptr;
+    const auto start = std::chrono::steady_clock::now();
+    std::string detail;
+    const bool analysed = b.analyse_lu(matrix, symmetric_strategy, pattern, detail);
+    report.analysed = true;
+    report.analyse_seconds += seconds_since(start);
+    if (!analysed) {
+      report.status = FactorizationStatus::numerical_failure;
+      report.detail = detail;
+      return false;
+    }
+  }
+  if (b.lu_numeric != nullptr) {
+    umfpack_di_free_numeric(&b.lu_numeric);
+  }
+  const auto start = std::chrono::steady_clock::now();
+  std::array<double, UMFPACK_INFO> info{};
+  const int code = umfpack_di_numeric(matrix.outerIndexPtr(), matrix.innerIndexPtr(), matrix.valuePtr(),
+                                      b.lu_symbolic, &b.lu_numeric, b.lu_control.data(), info.data());
+  report.factorize_seconds += seconds_since(start);
+  report.method = FactorizationMethod::lu;
+  report.negative_pivots.reset();
+  report.zero_pivots.reset();
+  if (code == UMFPACK_WARNING_singular_matrix) {
+    report.status = FactorizationStatus::singular;
+    report.determinant_sign = 0;
+    report.detail = "LU: matrix is singular";
+    return false;
+  }
+  if (code != UMFPACK_OK) {
+    report.status = code == UMFPACK_ERROR_out_of_memory ? FactorizationStatus::out_of_memory
+                                                        : FactorizationStatus::numerical_failure;
+    report.detail = "UMFPACK numeric factorization failed with code " + std::to_string(code);
+    return false;
+  }
+  // Mantissa and exponent: the plain product of thousands of pivots
+  // overflows or underflows.
+  double mantissa = 0.0;
+  double exponent = 0.0;
+  umfpack_di_get_determinant(&mantissa, &exponent, b.lu_numeric, info.data());
+  report.determinant_sign = mantissa > 0.0 ? 1 : (mantissa < 0.0 ? -1 : 0);
+  return true;
+}
+
 FactorizationReport DirectSparseSolver::factorize(const SparseMatrix& input, MatrixSymmetry symmetry) {
   Backend& b = *backend_;
   FactorizationReport report;
@@ -288,124 +409,17 @@ FactorizationReport DirectSparseSolver::factorize(const SparseMatrix& input, Mat
   const int n = static_cast<int>(matrix.rows());
   b.size = n;
 
-  auto run_cholmod = [&](bool supernodal_factor) -> bool {
-    cholmod_factor*& factor = supernodal_factor ? b.supernodal : b.simplicial;
-    const std::uint64_t known = supernodal_factor ? b.supernodal_pattern : b.simplicial_pattern;
-    if (factor == nullptr || known != pattern) {
-      report.pattern_changed = report.pattern_changed || factor != nullptr;
-      const AnalysisReport analysis = b.analyse_symmetric(matrix, supernodal_factor, pattern);
-      report.analysed = true;
-      report.analyse_seconds += analysis.seconds;
-      if (!analysis.ok) {
-        report.status = FactorizationStatus::numerical_failure;
-        report.detail = analysis.detail;
-        return false;
-      }
-    }
-    const auto start = std::chrono::steady_clock::now();
-    cholmod_sparse view = cholmod_view(matrix, 1);
-    b.common.final_ll = supernodal_factor ? 1 : 0;
-    const int success = cholmod_factorize(&view, factor, &b.common);
-    report.factorize_seconds += seconds_since(start);
-    report.method = supernodal_factor ? FactorizationMethod::cholesky_supernodal : FactorizationMethod::ldlt_simplicial;
-    if (success == 0 || b.common.status < CHOLMOD_OK) {
-      report.status = from_cholmod_error(b.common.status);
-      report.detail = std::string(method_name(report.method)) + " failed: " + cholmod_status_text(b.common.status);
-      return false;
-    }
-    const bool broke_down = factor->minor < factor->n;
-    if (supernodal_factor) {
-      if (broke_down) {
-        report.not_positive_definite = true;
-        report.failed_column = static_cast<int>(factor->minor);
-        return false;
-      }
-      report.negative_pivots = 0;
-      report.zero_pivots = 0;
-      report.determinant_sign = 1;
-      return true;
-    }
-    if (broke_down) {
-      report.detail = "LDL' met a zero pivot at column " + std::to_string(factor->minor);
-      return false;
-    }
-    // Simplicial LDL': D(j) is the first entry of column j of L.
-    const auto* column_start = static_cast<const int*>(factor->p);
-    const auto* values = static_cast<const double*>(factor->x);
-    int negative = 0;
-    int zero = 0;
-    for (int j = 0; j < n; ++j) {
-      const double pivot = values[column_start[j]];
-      negative += pivot < 0.0 ? 1 : 0;
-      zero += pivot == 0.0 ? 1 : 0;
-    }
-    report.negative_pivots = negative;
-    report.zero_pivots = zero;
-    report.determinant_sign = zero > 0 ? 0 : (negative % 2 == 0 ? 1 : -1);
-    if (zero > 0) {
-      report.detail = "LDL' has " + std::to_string(zero) + " zero pivots";
-      return false;
-    }
-    return true;
-  };
-
-  auto run_lu = [&](bool symmetric_strategy) -> bool {
-    if (b.lu_symbolic == nullptr || b.lu_pattern != pattern || b.lu_symmetric_strategy != symmetric_strategy) {
-      report.pattern_changed = report.pattern_changed || b.lu_symbolic != nullptr;
-      const auto start = std::chrono::steady_clock::now();
-      std::string detail;
-      const bool analysed = b.analyse_lu(matrix, symmetric_strategy, pattern, detail);
-      report.analysed = true;
-      report.analyse_seconds += seconds_since(start);
-      if (!analysed) {
-        report.status = FactorizationStatus::numerical_failure;
-        report.detail = detail;
-        return false;
-      }
-    }
-    if (b.lu_numeric != nullptr) {
-      umfpack_di_free_numeric(&b.lu_numeric);
-    }
-    const auto start = std::chrono::steady_clock::now();
-    std::array<double, UMFPACK_INFO> info{};
-    const int code = umfpack_di_numeric(matrix.outerIndexPtr(), matrix.innerIndexPtr(), matrix.valuePtr(),
-                                        b.lu_symbolic, &b.lu_numeric, b.lu_control.data(), info.data());
-    report.factorize_seconds += seconds_since(start);
-    report.method = FactorizationMethod::lu;
-    report.negative_pivots.reset();
-    report.zero_pivots.reset();
-    if (code == UMFPACK_WARNING_singular_matrix) {
-      report.status = FactorizationStatus::singular;
-      report.determinant_sign = 0;
-      report.detail = "LU: matrix is singular";
-      return false;
-    }
-    if (code != UMFPACK_OK) {
-      report.status = code == UMFPACK_ERROR_out_of_memory ? FactorizationStatus::out_of_memory
-                                                          : FactorizationStatus::numerical_failure;
-      report.detail = "UMFPACK numeric factorization failed with code " + std::to_string(code);
-      return false;
-    }
-    // Mantissa and exponent: the plain product of thousands of pivots
-    // overflows or underflows.
-    double mantissa = 0.0;
-    double exponent = 0.0;
-    umfpack_di_get_determinant(&mantissa, &exponent, b.lu_numeric, info.data());
-    report.determinant_sign = mantissa > 0.0 ? 1 : (mantissa < 0.0 ? -1 : 0);
-    return true;
-  };
-
   bool done = false;
   if (symmetry == MatrixSymmetry::symmetric) {
     if (!b.prefer_ldlt) {
-      done = run_cholmod(true);
+      done = b.factorize_cholmod(matrix, pattern, true, report);
       if (!done && !report.not_positive_definite) {
         return report;  // a hard failure, not indefiniteness
       }
     }
     if (!done && options_.try_ldlt_before_lu) {
       report.status = FactorizationStatus::ok;
-      done = run_cholmod(false);
+      done = b.factorize_cholmod(matrix, pattern, false, report);
       if (done) {
         // Indefinite (or first time after an indefinite one): keep LDL'
         // while it finds negative pivots, back to Cholesky once it does not.
@@ -415,11 +429,11 @@ FactorizationReport DirectSparseSolver::factorize(const SparseMatrix& input, Mat
     }
     if (!done) {
       report.status = FactorizationStatus::ok;
-      done = run_lu(true);
+      done = b.factorize_lu(matrix, pattern, true, report);
       b.prefer_ldlt = false;
     }
   } else {
-    done = run_lu(false);
+    done = b.factorize_lu(matrix, pattern, false, report);
   }
   if (!done) {
     if (report.status == FactorizationStatus::ok) {
