@@ -107,6 +107,30 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
   if (const std::string problem = mesh::check_consistency(mesh); !problem.empty()) {
     throw std::invalid_argument("model: inconsistent mesh: " + problem);
   }
+  check_regions();
+  set_cells();
+  build_constraints();
+  std::vector<std::vector<int>> blocks = cell_and_load_blocks();
+  const std::vector<double> moduli = cell_moduli();
+  add_face_contacts(blocks, moduli);
+  add_straight_edges(blocks, moduli);
+  add_surface_contacts(blocks, moduli);
+  symmetric = pressure_edges.empty();
+  assembly = AssemblyPattern(constraints, blocks);
+}
+
+double ModelImpl::axis_tolerance() const {
+  // Model size, for tolerances on coordinates.
+  double extent = 0.0;
+  for (const Eigen::Vector2d& x : mesh.nodes) {
+    extent = std::max(extent, x.cwiseAbs().maxCoeff());
+  }
+  return 1e-10 * std::max(extent, 1e-300);
+}
+
+// Every region has a valid law; the locking cure each one gets; an
+// axisymmetric mesh lies at r >= 0.
+void ModelImpl::check_regions() {
   const int regions = static_cast<int>(mesh.region_names.size());
   if (static_cast<int>(definition.regions.size()) < regions) {
     throw std::invalid_argument("model: the mesh has " + std::to_string(regions) +
@@ -128,16 +152,10 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     treatments.push_back(t);
   }
 
-  // Model size, for tolerances on coordinates.
-  double extent = 0.0;
-  for (const Eigen::Vector2d& x : mesh.nodes) {
-    extent = std::max(extent, x.cwiseAbs().maxCoeff());
-  }
-  const double axis_tolerance = 1e-10 * std::max(extent, 1e-300);
-  const bool axisymmetric = definition.kinematics == Kinematics::axisymmetric;
-  if (axisymmetric) {
+  if (definition.kinematics == Kinematics::axisymmetric) {
+    const double tolerance = axis_tolerance();
     for (int n = 0; n < mesh.node_count(); ++n) {
-      if (mesh.nodes[static_cast<std::size_t>(n)].x() < -axis_tolerance) {
+      if (mesh.nodes[static_cast<std::size_t>(n)].x() < -tolerance) {
         throw std::invalid_argument("model: axisymmetric mesh has node " + std::to_string(n) +
                                     " at r = " + std::to_string(mesh.nodes[static_cast<std::size_t>(n)].x()) +
                                     " < 0");
@@ -145,6 +163,10 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     }
   }
 
+}
+
+// Per cell: its type, law and whether it takes the mixed form.
+void ModelImpl::set_cells() {
   bool tri3_needing_cure = false;
   settings.reserve(mesh.cells.size());
   for (const mesh::Cell& cell : mesh.cells) {
@@ -163,9 +185,11 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
         "use 6-node triangles or quadrilaterals there");
   }
 
-  // Constraints: prescribed values first, then the axis, rigid faces and
-  // multi-point constraints (each eliminates a still-free unknown).
-  auto variable = [](int node, int component) { return 2 * node + component; };
+}
+
+// Prescribed values first, then the axis, rigid faces and multi-point
+// constraints (each eliminates a still-free unknown).
+void ModelImpl::build_constraints() {
   // Overlapping sets (a corner in two symmetry planes' sets) may prescribe
   // zero twice; any other repetition is an error.
   std::vector<bool> fixed_at_zero(static_cast<std::size_t>(variable_count), false);
@@ -194,7 +218,8 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
                             "prescribed out-of-plane strain");
     }
   }
-  if (axisymmetric) {
+  if (definition.kinematics == Kinematics::axisymmetric) {
+    const double axis_tolerance = this->axis_tolerance();
     // Nodes on the axis cannot move radially (u_r = 0 there); the user may
     // have said so already.
     for (int n = 0; n < mesh.node_count(); ++n) {
@@ -249,7 +274,23 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
   }
   constraints.finish();
 
-  // Blocks: cells, then follower-pressure edges (they carry load stiffness).
+}
+
+std::vector<int> ModelImpl::edge_variables(const mesh::Edge& edge) const {
+  std::vector<int> vars;
+  for (int a = 0; a < edge.node_count; ++a) {
+    vars.push_back(variable(edge.nodes[static_cast<std::size_t>(a)], 0));
+    vars.push_back(variable(edge.nodes[static_cast<std::size_t>(a)], 1));
+  }
+  if (out_of_plane_variable >= 0) {
+    vars.push_back(out_of_plane_variable);
+  }
+  return vars;
+}
+
+// Assembly blocks: the cells, then follower-pressure edges (they carry load
+// stiffness); dead-traction edges add forces only.
+std::vector<std::vector<int>> ModelImpl::cell_and_load_blocks() {
   std::vector<std::vector<int>> blocks;
   blocks.reserve(mesh.cells.size() + 16);
   const bool gps = out_of_plane_variable >= 0;
@@ -264,17 +305,6 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
     }
     blocks.push_back(std::move(vars));
   }
-  auto edge_variables = [&](const mesh::Edge& edge) {
-    std::vector<int> vars;
-    for (int a = 0; a < edge.node_count; ++a) {
-      vars.push_back(variable(edge.nodes[static_cast<std::size_t>(a)], 0));
-      vars.push_back(variable(edge.nodes[static_cast<std::size_t>(a)], 1));
-    }
-    if (gps) {
-      vars.push_back(out_of_plane_variable);
-    }
-    return vars;
-  };
   for (std::size_t k = 0; k < definition.pressures.size(); ++k) {
     const FollowerPressure& p = definition.pressures[k];
     for (const mesh::Edge& edge : require_edge_set(mesh, p.edge_set, "follower pressure")) {
@@ -292,6 +322,12 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       traction_variables.push_back(edge_variables(edge));
     }
   }
+  return blocks;
+}
+
+// The Young's modulus of each cell's law, which the penalty stiffnesses
+// scale with (empty when nothing needs it).
+std::vector<double> ModelImpl::cell_moduli() const {
   std::vector<double> youngs_modulus_of_cell;
   if (!definition.contacts.empty() || !definition.surface_contacts.empty() ||
       !definition.straight_edges.empty()) {
@@ -301,6 +337,11 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
           materials::initial_youngs_modulus(definition.regions[static_cast<std::size_t>(cell.region)].law));
     }
   }
+  return youngs_modulus_of_cell;
+}
+
+void ModelImpl::add_face_contacts(std::vector<std::vector<int>>& blocks, const std::vector<double>& youngs_modulus_of_cell) {
+  const bool axisymmetric = definition.kinematics == Kinematics::axisymmetric;
   if (!definition.contacts.empty()) {
     for (const FaceContact& contact : definition.contacts) {
       const std::string what =
@@ -321,6 +362,10 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
       blocks.emplace_back(vars.begin(), vars.end());
     }
   }
+}
+
+void ModelImpl::add_straight_edges(std::vector<std::vector<int>>& blocks, const std::vector<double>& youngs_modulus_of_cell) {
+  const bool axisymmetric = definition.kinematics == Kinematics::axisymmetric;
   edge_line_block_begin = static_cast<int>(blocks.size());
   for (std::size_t k = 0; k < definition.straight_edges.size(); ++k) {
     const StraightEdge& line = definition.straight_edges[k];
@@ -354,6 +399,10 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
           {variable(base, 0), variable(base, 1), variable(node, 0), variable(node, 1)});
     }
   }
+}
+
+void ModelImpl::add_surface_contacts(std::vector<std::vector<int>>& blocks, const std::vector<double>& youngs_modulus_of_cell) {
+  const bool axisymmetric = definition.kinematics == Kinematics::axisymmetric;
   for (std::size_t k = 0; k < definition.surface_contacts.size(); ++k) {
     const SurfaceContact& contact = definition.surface_contacts[k];
     const std::string what = "contact of '" + contact.edge_set + "' with a rigid surface";
@@ -393,8 +442,7 @@ ModelImpl::ModelImpl(mesh::Mesh mesh_in, ModelDefinition definition_in)
   for (const SurfaceContactNode& node : surface_nodes) {
     blocks.push_back({variable(node.node, 0), variable(node.node, 1)});
   }
-  symmetric = pressure_edges.empty();
-  assembly = AssemblyPattern(constraints, blocks);
+
 }
 
 int ModelImpl::threads() const {

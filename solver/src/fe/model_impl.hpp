@@ -39,6 +39,9 @@ class ModelImpl {
 
   [[nodiscard]] int threads() const;
 
+  // The variable of a node's displacement component.
+  [[nodiscard]] static int variable(int node, int component) { return 2 * node + component; }
+
   mesh::Mesh mesh;
   ModelDefinition definition;
   std::vector<RegionTreatment> treatments;
@@ -73,6 +76,19 @@ class ModelImpl {
   AssemblyPattern assembly;
   bool symmetric = true;
   std::vector<std::string> warnings;
+
+ private:
+  // The construction, step by step.
+  [[nodiscard]] double axis_tolerance() const;
+  void check_regions();
+  void set_cells();
+  void build_constraints();
+  [[nodiscard]] std::vector<int> edge_variables(const mesh::Edge& edge) const;
+  std::vector<std::vector<int>> cell_and_load_blocks();
+  [[nodiscard]] std::vector<double> cell_moduli() const;
+  void add_face_contacts(std::vector<std::vector<int>>& blocks, const std::vector<double>& youngs_modulus_of_cell);
+  void add_straight_edges(std::vector<std::vector<int>>& blocks, const std::vector<double>& youngs_modulus_of_cell);
+  void add_surface_contacts(std::vector<std::vector<int>>& blocks, const std::vector<double>& youngs_modulus_of_cell);
 };
 
 }  // namespace plystrain::solver
