@@ -464,19 +464,13 @@ void ModelImpl::gather_cell(int cell, const Eigen::VectorXd& z, CellCoordinates&
   }
 }
 
-Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_factor,
-                                      Eigen::VectorXd& forces, SparseMatrix* tangent) const {
-  forces.resize(variable_count);
-  double* values = nullptr;
-  Eigen::Index value_count = 0;
-  if (tangent) {
-    assembly.adopt_pattern(*tangent);
-    values = tangent->valuePtr();
-    value_count = tangent->nonZeros();
-  }
+// The cells' internal forces and tangents, assembled in parallel; the first
+// cell whose kernel fails (in cell order) ends the evaluation.
+Evaluation ModelImpl::cell_forces(const Eigen::VectorXd& z, Eigen::VectorXd& forces, double* values,
+                                  Eigen::Index value_count, bool with_tangent) const {
   const int cells = mesh.cell_count();
   std::vector<CellVector> residuals(static_cast<std::size_t>(std::min(chunk_size, cells)));
-  std::vector<CellMatrix> matrices(tangent ? residuals.size() : 0);
+  std::vector<CellMatrix> matrices(with_tangent ? residuals.size() : 0);
   std::vector<KernelOutcome> outcomes(residuals.size());
   int failed_cell = -1;
   ThreadExceptions exceptions;
@@ -505,7 +499,7 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
           gather_cell(c, z, X, dofs);
           outcomes[slot] =
               cell_internal_forces(settings[static_cast<std::size_t>(c)], X, dofs, residuals[slot],
-                                   tangent ? &matrices[slot] : nullptr);
+                                   with_tangent ? &matrices[slot] : nullptr);
         });
         if (!done) {
           // Every thread then leaves at this chunk; the exception is raised below.
@@ -529,7 +523,7 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
         const std::size_t slot = static_cast<std::size_t>(c - start);
         const int n = static_cast<int>(residuals[slot].size());
         assembly.scatter_vector(c, residuals[slot].data(), n, forces, share);
-        if (tangent) {
+        if (with_tangent) {
           assembly.scatter_matrix(c, matrices[slot].data(), n, values, share);
         }
       }
@@ -541,12 +535,15 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
     return cell_failure(failed_cell, outcomes[static_cast<std::size_t>(failed_cell % chunk_size)]);
   }
 
+  return {};
+}
+
+void ModelImpl::pressure_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces, double* values) const {
   // Follower pressures: f_ext enters the residual with a minus sign, its
   // stiffness likewise.
-  const bool gps = out_of_plane_variable >= 0;
   for (std::size_t e = 0; e < pressure_edges.size(); ++e) {
     const LoadedEdge& le = pressure_edges[e];
-    const int block = cells + static_cast<int>(e);
+    const int block = mesh.cell_count() + static_cast<int>(e);
     EdgeSetting s{le.edge.node_count, definition.kinematics};
     EdgeCoordinates X(s.node_count, 2);
     for (int a = 0; a < s.node_count; ++a) {
@@ -560,15 +557,18 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
     const double p = definition.pressures[static_cast<std::size_t>(le.load)].pressure.at(load_factor);
     EdgeVector f;
     EdgeMatrix k;
-    follower_pressure_forces(s, X, dofs, p, f, tangent ? &k : nullptr);
+    follower_pressure_forces(s, X, dofs, p, f, values != nullptr ? &k : nullptr);
     const int n = static_cast<int>(f.size());
     f = -f;
     assembly.scatter_vector(block, f.data(), n, forces);
-    if (tangent) {
+    if (values != nullptr) {
       k = -k;
       assembly.scatter_matrix(block, k.data(), n, values);
     }
   }
+}
+
+void ModelImpl::traction_forces(double load_factor, Eigen::VectorXd& forces) const {
   for (std::size_t e = 0; e < traction_edges.size(); ++e) {
     const LoadedEdge& le = traction_edges[e];
     EdgeSetting s{le.edge.node_count, definition.kinematics};
@@ -584,17 +584,23 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
       forces(vars[static_cast<std::size_t>(a)]) -= f(a);
     }
   }
+}
+
+void ModelImpl::face_contact_forces(const Eigen::VectorXd& z, Eigen::VectorXd& forces, double* values) const {
   for (std::size_t k = 0; k < contact_pairs.size(); ++k) {
     Eigen::Matrix<double, 4, 1> f;
     Eigen::Matrix<double, 4, 4> stiffness;
     if (contact_pair_forces(contact_pairs[k], contact_closed[k] != 0, z, f, stiffness)) {
       const int block = contact_block_begin + static_cast<int>(k);
       assembly.scatter_vector(block, f.data(), 4, forces);
-      if (tangent) {
+      if (values != nullptr) {
         assembly.scatter_matrix(block, stiffness.data(), 4, values);
       }
     }
   }
+}
+
+void ModelImpl::straight_edge_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces, double* values) const {
   for (std::size_t k = 0; k < edge_line_ties.size(); ++k) {
     const EdgeLineTie& tie = edge_line_ties[k];
     const double angle =
@@ -606,11 +612,14 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
     Eigen::Matrix<double, 4, 1> f = tie.stiffness * gap * a;
     const int block = edge_line_block_begin + static_cast<int>(k);
     assembly.scatter_vector(block, f.data(), 4, forces);
-    if (tangent) {
+    if (values != nullptr) {
       Eigen::Matrix<double, 4, 4> stiffness = tie.stiffness * a * a.transpose();
       assembly.scatter_matrix(block, stiffness.data(), 4, values);
     }
   }
+}
+
+void ModelImpl::surface_contact_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces, double* values) const {
   for (std::size_t k = 0; k < surface_nodes.size(); ++k) {
     const SurfaceContactNode& node = surface_nodes[k];
     const SurfaceContact& contact = definition.surface_contacts[static_cast<std::size_t>(node.contact)];
@@ -622,12 +631,32 @@ Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_fact
                             touch)) {
       const int block = surface_block_begin + static_cast<int>(k);
       assembly.scatter_vector(block, f.data(), 2, forces);
-      if (tangent) {
+      if (values != nullptr) {
         assembly.scatter_matrix(block, stiffness.data(), 2, values);
       }
     }
   }
-  if (gps) {
+}
+
+Evaluation ModelImpl::variable_forces(const Eigen::VectorXd& z, double load_factor,
+                                      Eigen::VectorXd& forces, SparseMatrix* tangent) const {
+  forces.resize(variable_count);
+  double* values = nullptr;
+  Eigen::Index value_count = 0;
+  if (tangent) {
+    assembly.adopt_pattern(*tangent);
+    values = tangent->valuePtr();
+    value_count = tangent->nonZeros();
+  }
+  if (const Evaluation cells = cell_forces(z, forces, values, value_count, tangent != nullptr); !cells.ok()) {
+    return cells;
+  }
+  pressure_forces(z, load_factor, forces, values);
+  traction_forces(load_factor, forces);
+  face_contact_forces(z, forces, values);
+  straight_edge_forces(z, load_factor, forces, values);
+  surface_contact_forces(z, load_factor, forces, values);
+  if (out_of_plane_variable >= 0) {
     forces(out_of_plane_variable) -= definition.out_of_plane.resultant.at(load_factor);
   }
   if (!forces.allFinite()) {

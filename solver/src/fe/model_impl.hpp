@@ -78,6 +78,18 @@ class ModelImpl {
   std::vector<std::string> warnings;
 
  private:
+  // The parts of variable_forces; `values` is the tangent's value array
+  // (null without a tangent).
+  Evaluation cell_forces(const Eigen::VectorXd& z, Eigen::VectorXd& forces, double* values, Eigen::Index value_count,
+                         bool with_tangent) const;
+  void pressure_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces, double* values) const;
+  void traction_forces(double load_factor, Eigen::VectorXd& forces) const;
+  void face_contact_forces(const Eigen::VectorXd& z, Eigen::VectorXd& forces, double* values) const;
+  void straight_edge_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces,
+                            double* values) const;
+  void surface_contact_forces(const Eigen::VectorXd& z, double load_factor, Eigen::VectorXd& forces,
+                              double* values) const;
+
   // The construction, step by step.
   [[nodiscard]] double axis_tolerance() const;
   void check_regions();
