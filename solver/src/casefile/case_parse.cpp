@@ -64,6 +64,119 @@ std::optional<std::string> usable_name(const toml::table& table) {
   return text;
 }
 
+// A node read as a value of a key's kind: the value, or what was expected.
+struct Converted {
+  std::optional<CaseValue> value;
+  std::string expected;
+};
+
+Converted expected(std::string what) { return {std::nullopt, std::move(what)}; }
+
+std::optional<double> finite_number(const toml::node& element) {
+  const std::optional<double> number = number_of(element);
+  return (number && std::isfinite(*number)) ? number : std::nullopt;
+}
+
+Converted converted_lengths(const toml::node& node, const KeyInfo& info) {
+  std::vector<double> numbers;
+  if (const toml::array* array = node.as_array()) {
+    for (const toml::node& element : *array) {
+      const std::optional<double> number = finite_number(element);
+      if (!number) {
+        return expected("an array of lengths (numbers)");
+      }
+      numbers.push_back(*number);
+    }
+  } else if (info.kind == ValueKind::lengths) {
+    const std::optional<double> number = finite_number(node);
+    if (!number) {
+      return expected("a length or an array of lengths");
+    }
+    numbers.push_back(*number);
+  }
+  if (info.kind == ValueKind::length_pair && numbers.size() != 2) {
+    return expected("an array of two lengths");
+  }
+  if (numbers.empty()) {
+    return expected("at least one length");
+  }
+  return {CaseValue{numbers}, {}};
+}
+
+Converted converted_points(const toml::node& node) {
+  std::vector<std::array<double, 2>> points;
+  const toml::array* array = node.as_array();
+  if (array == nullptr) {
+    return expected("an array of [r, z] pairs");
+  }
+  for (const toml::node& element : *array) {
+    const toml::array* pair = element.as_array();
+    if (pair == nullptr || pair->size() != 2 || !finite_number(*pair->get(0)) || !finite_number(*pair->get(1))) {
+      return expected("an array of [r, z] pairs of numbers");
+    }
+    points.push_back({*finite_number(*pair->get(0)), *finite_number(*pair->get(1))});
+  }
+  return {CaseValue{points}, {}};
+}
+
+Converted converted_texts(const toml::node& node, const KeyInfo& info) {
+  std::vector<std::string> texts;
+  const toml::array* array = node.as_array();
+  if (array == nullptr) {
+    return expected(info.type_text());
+  }
+  for (const toml::node& element : *array) {
+    if (!element.is_string()) {
+      return expected(info.type_text());
+    }
+    texts.push_back(element.as_string()->get());
+  }
+  return {CaseValue{texts}, {}};
+}
+
+Converted converted_value(const toml::node& node, const KeyInfo& info) {
+  switch (info.kind) {
+    case ValueKind::integer:
+      return node.is_integer() ? Converted{CaseValue{node.as_integer()->get()}, {}} : expected("an integer");
+    case ValueKind::number:
+    case ValueKind::length:
+      if (const std::optional<double> number = finite_number(node)) {
+        return {CaseValue{*number}, {}};
+      }
+      return expected(info.kind == ValueKind::length ? "a finite length (a number)" : "a finite number");
+    case ValueKind::lengths:
+    case ValueKind::length_pair:
+      return converted_lengths(node, info);
+    case ValueKind::points:
+      return converted_points(node);
+    case ValueKind::boolean:
+      return node.is_boolean() ? Converted{CaseValue{node.as_boolean()->get()}, {}} : expected("true or false");
+    case ValueKind::choice:
+      return node.is_string() ? Converted{CaseValue{node.as_string()->get()}, {}} : expected(info.type_text());
+    case ValueKind::choice_or_number:
+      if (node.is_string()) {
+        return {CaseValue{node.as_string()->get()}, {}};
+      }
+      if (const std::optional<double> number = finite_number(node)) {
+        return {CaseValue{*number}, {}};
+      }
+      return expected(info.type_text());
+    case ValueKind::name:
+    case ValueKind::text:
+      if (node.is_string()) {
+        return {CaseValue{node.as_string()->get()}, {}};
+      }
+      return expected(info.kind == ValueKind::name ? "a name (a string of a-z, 0-9 and -)" : "a string");
+    case ValueKind::paths:
+    case ValueKind::names:
+      return converted_texts(node, info);
+    case ValueKind::table:
+    case ValueKind::values:
+      break;
+  }
+  return expected("a value this key cannot take");
+}
+
 class DocumentParser {
  public:
   explicit DocumentParser(std::filesystem::path file) : file_(std::move(file)) {}
@@ -226,130 +339,16 @@ class DocumentParser {
   // The node as a value of the key's kind, checked; or nullopt with `problem` set.
   static std::optional<CaseValue> convert(const toml::node& node, const KeyInfo& info,
                                           std::string& problem) {
-    const auto fail = [&problem, &node](const std::string& expected) {
-      problem = "expected " + expected + ", found " + describe(node);
-      return std::optional<CaseValue>{};
-    };
-    const auto finite_number = [](const toml::node& element) -> std::optional<double> {
-      const std::optional<double> number = number_of(element);
-      return (number && std::isfinite(*number)) ? number : std::nullopt;
-    };
-    std::optional<CaseValue> value;
-    switch (info.kind) {
-      case ValueKind::integer:
-        if (!node.is_integer()) {
-          return fail("an integer");
-        }
-        value = CaseValue{node.as_integer()->get()};
-        break;
-      case ValueKind::number:
-      case ValueKind::length: {
-        const std::optional<double> number = finite_number(node);
-        if (!number) {
-          return fail(info.kind == ValueKind::length ? "a finite length (a number)"
-                                                     : "a finite number");
-        }
-        value = CaseValue{*number};
-        break;
-      }
-      case ValueKind::lengths:
-      case ValueKind::length_pair: {
-        std::vector<double> numbers;
-        if (const toml::array* array = node.as_array()) {
-          for (const toml::node& element : *array) {
-            const std::optional<double> number = finite_number(element);
-            if (!number) {
-              return fail("an array of lengths (numbers)");
-            }
-            numbers.push_back(*number);
-          }
-        } else if (info.kind == ValueKind::lengths) {
-          const std::optional<double> number = finite_number(node);
-          if (!number) {
-            return fail("a length or an array of lengths");
-          }
-          numbers.push_back(*number);
-        }
-        if (info.kind == ValueKind::length_pair && numbers.size() != 2) {
-          return fail("an array of two lengths");
-        }
-        if (numbers.empty()) {
-          return fail("at least one length");
-        }
-        value = CaseValue{numbers};
-        break;
-      }
-      case ValueKind::points: {
-        std::vector<std::array<double, 2>> points;
-        const toml::array* array = node.as_array();
-        if (array == nullptr) {
-          return fail("an array of [r, z] pairs");
-        }
-        for (const toml::node& element : *array) {
-          const toml::array* pair = element.as_array();
-          if (pair == nullptr || pair->size() != 2 || !finite_number(*pair->get(0)) ||
-              !finite_number(*pair->get(1))) {
-            return fail("an array of [r, z] pairs of numbers");
-          }
-          points.push_back({*finite_number(*pair->get(0)), *finite_number(*pair->get(1))});
-        }
-        value = CaseValue{points};
-        break;
-      }
-      case ValueKind::boolean:
-        if (!node.is_boolean()) {
-          return fail("true or false");
-        }
-        value = CaseValue{node.as_boolean()->get()};
-        break;
-      case ValueKind::choice:
-        if (!node.is_string()) {
-          return fail(info.type_text());
-        }
-        value = CaseValue{node.as_string()->get()};
-        break;
-      case ValueKind::choice_or_number:
-        if (node.is_string()) {
-          value = CaseValue{node.as_string()->get()};
-        } else if (const std::optional<double> number = finite_number(node)) {
-          value = CaseValue{*number};
-        } else {
-          return fail(info.type_text());
-        }
-        break;
-      case ValueKind::name:
-      case ValueKind::text:
-        if (!node.is_string()) {
-          return fail(info.kind == ValueKind::name ? "a name (a string of a-z, 0-9 and -)"
-                                                   : "a string");
-        }
-        value = CaseValue{node.as_string()->get()};
-        break;
-      case ValueKind::paths:
-      case ValueKind::names: {
-        std::vector<std::string> texts;
-        const toml::array* array = node.as_array();
-        if (array == nullptr) {
-          return fail(info.type_text());
-        }
-        for (const toml::node& element : *array) {
-          if (!element.is_string()) {
-            return fail(info.type_text());
-          }
-          texts.push_back(element.as_string()->get());
-        }
-        value = CaseValue{texts};
-        break;
-      }
-      case ValueKind::table:
-      case ValueKind::values:
-        return fail("a value this key cannot take");
+    Converted converted = converted_value(node, info);
+    if (!converted.value) {
+      problem = "expected " + converted.expected + ", found " + describe(node);
+      return std::nullopt;
     }
-    problem = check_value(*value, info);
+    problem = check_value(*converted.value, info);
     if (!problem.empty()) {
       return std::nullopt;
     }
-    return value;
+    return converted.value;
   }
 
   void read_variant(const toml::table& table, const SourceLocation& where) {
