@@ -10,10 +10,10 @@
 // film); only the timings matter here.
 #include "plystrain/materials/law.hpp"
 #include "plystrain/mesh/structured.hpp"
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 #include "plystrain/solver/model.hpp"
-#include "plystrain/solver/newton.hpp"
+#include "plystrain/nonlinear/newton.hpp"
 
 #include <omp.h>
 #include <sys/resource.h>
@@ -40,7 +40,7 @@ materials::LawParameters neo_hookean(double youngs_modulus, double poisson_ratio
 
 struct Arguments {
   int cells_along = 160;
-  solver::FillOrdering ordering = solver::FillOrdering::metis;
+  nonlinear::FillOrdering ordering = nonlinear::FillOrdering::metis;
   double stretch = 0.05;
   bool assembly_only = false;
 };
@@ -62,7 +62,7 @@ Arguments parse(int argc, char** argv) {
     if (key == "--cells-along") {
       arguments.cells_along = std::stoi(value);
     } else if (key == "--ordering") {
-      arguments.ordering = value == "amd" ? solver::FillOrdering::amd : solver::FillOrdering::metis;
+      arguments.ordering = value == "amd" ? nonlinear::FillOrdering::amd : nonlinear::FillOrdering::metis;
     } else if (key == "--stretch") {
       arguments.stretch = std::stod(value);
     } else {
@@ -93,12 +93,12 @@ double peak_rss_mb() {
 int time_assembly(solver::Model& model) {
   const Eigen::VectorXd q = Eigen::VectorXd::Zero(model.size());
   Eigen::VectorXd residual;
-  solver::SparseMatrix tangent;
+  nonlinear::SparseMatrix tangent;
   auto median_of = [&](bool with_tangent) {
     std::vector<double> seconds;
     for (int repeat = 0; repeat < 5; ++repeat) {
       const auto start = std::chrono::steady_clock::now();
-      const solver::Evaluation result = model.evaluate(q, 0.0, residual, with_tangent ? &tangent : nullptr);
+      const nonlinear::Evaluation result = model.evaluate(q, 0.0, residual, with_tangent ? &tangent : nullptr);
       if (!result.ok()) {
         std::fprintf(stderr, "evaluation failed: %s\n", result.detail.c_str());
         std::exit(1);
@@ -153,35 +153,35 @@ int main(int argc, char** argv) {
     return time_assembly(model);
   }
 
-  solver::LinearSolverOptions linear_options;
+  nonlinear::LinearSolverOptions linear_options;
   linear_options.ordering = arguments.ordering;
-  solver::DirectSparseSolver linear_solver(linear_options);
-  solver::NewtonOptions newton;
-  newton.symmetry = model.tangent_is_symmetric() ? solver::MatrixSymmetry::symmetric : solver::MatrixSymmetry::unsymmetric;
+  nonlinear::DirectSparseSolver linear_solver(linear_options);
+  nonlinear::NewtonOptions newton;
+  newton.symmetry = model.tangent_is_symmetric() ? nonlinear::MatrixSymmetry::symmetric : nonlinear::MatrixSymmetry::unsymmetric;
 
   // One load increment with the tangent predictor (which spreads the pulled
   // edge's motion over the strip), then Newton iterations.
-  solver::LoadStepperOptions options;
+  nonlinear::LoadStepperOptions options;
   options.steps = 1;
-  options.predictor = solver::Predictor::tangent;
+  options.predictor = nonlinear::Predictor::tangent;
   options.keep_states = false;
   options.newton = newton;
-  std::vector<solver::NewtonIterationRecord> records;
-  solver::LoadStepperCallbacks callbacks;
-  callbacks.on_iteration = [&records](int, const solver::NewtonIterationRecord& record) { records.push_back(record); };
+  std::vector<nonlinear::NewtonIterationRecord> records;
+  nonlinear::LoadStepperCallbacks callbacks;
+  callbacks.on_iteration = [&records](int, const nonlinear::NewtonIterationRecord& record) { records.push_back(record); };
   // Symbolic analysis once per mesh, timed on its own (the path below then
   // reuses it).
   double analyse_seconds = 0.0;
   {
     Eigen::VectorXd residual;
-    solver::SparseMatrix tangent;
+    nonlinear::SparseMatrix tangent;
     (void)model.evaluate(Eigen::VectorXd::Zero(model.size()), 0.0, residual, &tangent);
     analyse_seconds = linear_solver.analyse(tangent, newton.symmetry).seconds;
   }
   const double cpu_before = cpu_seconds();
   const auto start = std::chrono::steady_clock::now();
-  const solver::LoadPathResult path =
-      solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, callbacks);
+  const nonlinear::LoadPathResult path =
+      nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, callbacks);
   const double total = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   const double cpu = cpu_seconds() - cpu_before;
 
@@ -214,8 +214,8 @@ int main(int argc, char** argv) {
       "\"final_residual\": %.3e, \"build_s\": %.3f, \"analyse_s\": %.3f, \"assemble_s\": %.4f, "
       "\"factorize_s\": %.4f, \"solve_s\": %.4f, \"newton_iteration_s\": %.4f, "
       "\"assemble_path_per_iteration_s\": %.4f, \"path_s\": %.3f, \"path_cpu_s\": %.3f, \"peak_rss_mb\": %.1f}\n",
-      model.size(), model.mesh().cell_count(), arguments.ordering == solver::FillOrdering::metis ? "metis" : "amd",
-      omp_get_max_threads(), solver::status_name(path.status), path.increments.size(), path.failed_attempts,
+      model.size(), model.mesh().cell_count(), arguments.ordering == nonlinear::FillOrdering::metis ? "metis" : "amd",
+      omp_get_max_threads(), nonlinear::status_name(path.status), path.increments.size(), path.failed_attempts,
       iterations, evaluations, final_residual, build_seconds, analyse, per_evaluation, factorize * per, solve * per,
       per_evaluation + (factorize + solve) * per, assemble * per, total, cpu, peak_rss_mb());
   return path.completed() ? 0 : 1;

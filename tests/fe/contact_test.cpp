@@ -3,8 +3,8 @@
 // and the open state.
 #include "fe/support.hpp"
 #include "plystrain/mesh/structured.hpp"
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -93,11 +93,11 @@ solver::ModelDefinition pressed_blocks(double top_displacement) {
 // Through the project's load stepper and Newton, which update the contact
 // active set after convergence.
 Eigen::VectorXd solve_path(solver::Model& model) {
-  solver::DirectSparseSolver linear_solver;
-  solver::LoadStepperOptions options;
+  nonlinear::DirectSparseSolver linear_solver;
+  nonlinear::LoadStepperOptions options;
   options.steps = 1;
-  const solver::LoadPathResult path =
-      solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, {});
+  const nonlinear::LoadPathResult path =
+      nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, {});
   REQUIRE(path.completed());
   return path.q;
 }

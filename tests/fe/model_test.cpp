@@ -82,7 +82,7 @@ TEST_CASE("the tangent's pattern is built once and reused", "[fe][model]") {
   const mesh::Mesh mesh = two_layer_mesh(mesh::CellType::quad9);
   solver::Model model(mesh, rich_definition(Kinematics::plane_strain));
   Eigen::VectorXd r;
-  solver::SparseMatrix K;
+  nonlinear::SparseMatrix K;
   REQUIRE(model.evaluate(trial_q(model.size(), 0.01), 0.5, r, &K).ok());
   const double* values = K.valuePtr();
   const int* inner = K.innerIndexPtr();
@@ -111,7 +111,7 @@ TEST_CASE("assembly is identical with one and two threads", "[fe][model][threads
     def.threads = threads;
     solver::Model model(mesh, def);
     Eigen::VectorXd r;
-    solver::SparseMatrix K;
+    nonlinear::SparseMatrix K;
     REQUIRE(model.evaluate(trial_q(model.size(), 0.002), 0.5, r, &K).ok());
     residuals.push_back(r);
     values.push_back(Eigen::Map<const Eigen::VectorXd>(K.valuePtr(), K.nonZeros()));

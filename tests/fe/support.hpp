@@ -28,7 +28,7 @@ struct TangentComparison {
 inline TangentComparison compare_tangent_with_differences(solver::Model& model, const Eigen::VectorXd& q,
                                                           double load_factor, double h) {
   Eigen::VectorXd r;
-  solver::SparseMatrix K;
+  nonlinear::SparseMatrix K;
   if (!model.evaluate(q, load_factor, r, &K).ok()) {
     throw std::runtime_error("tangent check: the evaluation at q failed");
   }
@@ -73,7 +73,7 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
                            double tolerance = 1e-10, int max_iterations = 30) {
   NewtonOutcome out;
   out.q = Eigen::VectorXd::Zero(model.size());
-  solver::SparseMatrix K;
+  nonlinear::SparseMatrix K;
   Eigen::VectorXd r;
   for (int step = 1; step <= steps; ++step) {
     const double lambda = load_factor_end * step / steps;
@@ -81,7 +81,7 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
     double last_step = std::numeric_limits<double>::infinity();
     bool converged = false;
     for (int it = 0; it < max_iterations; ++it) {
-      const solver::Evaluation e = model.evaluate(out.q, lambda, r, &K);
+      const nonlinear::Evaluation e = model.evaluate(out.q, lambda, r, &K);
       if (!e.ok()) {
         throw std::runtime_error(std::string("evaluation failed: ") + e.detail);
       }
@@ -101,13 +101,13 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
       }
       Eigen::VectorXd dq;
       if (model.tangent_is_symmetric()) {
-        Eigen::SimplicialLDLT<solver::SparseMatrix> ldlt(K);
+        Eigen::SimplicialLDLT<nonlinear::SparseMatrix> ldlt(K);
         if (ldlt.info() != Eigen::Success) {
           throw std::runtime_error("factorization failed");
         }
         dq = ldlt.solve(r);
       } else {
-        Eigen::SparseLU<solver::SparseMatrix> lu;
+        Eigen::SparseLU<nonlinear::SparseMatrix> lu;
         lu.compute(K);
         if (lu.info() != Eigen::Success) {
           throw std::runtime_error("LU factorization failed");
@@ -120,7 +120,7 @@ inline NewtonOutcome solve(solver::Model& model, int steps = 1, double load_fact
       Eigen::VectorXd trial_residual;
       for (int cut = 0; cut < 12; ++cut) {
         const Eigen::VectorXd trial = out.q - factor * dq;
-        const solver::Evaluation t = model.evaluate(trial, lambda, trial_residual, nullptr);
+        const nonlinear::Evaluation t = model.evaluate(trial, lambda, trial_residual, nullptr);
         if (t.ok()) {
           break;
         }

@@ -3,8 +3,8 @@
 // flat surface against the homogeneous solution of its law.
 #include "fe/support.hpp"
 #include "plystrain/mesh/structured.hpp"
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -91,11 +91,11 @@ TEST_CASE("surface contact: a block squeezed by a rising flat surface is in unif
   contact.lift.value = delta;
   def.surface_contacts.push_back(contact);
   solver::Model model(mesh, def);
-  solver::DirectSparseSolver linear_solver;
-  solver::LoadStepperOptions options;
+  nonlinear::DirectSparseSolver linear_solver;
+  nonlinear::LoadStepperOptions options;
   options.steps = 4;
-  const solver::LoadPathResult path =
-      solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, {});
+  const nonlinear::LoadPathResult path =
+      nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, {});
   INFO(path.reason);
   REQUIRE(path.completed());
   const Eigen::MatrixX2d u = model.displacements(path.q, 1.0);

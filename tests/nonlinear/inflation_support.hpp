@@ -6,8 +6,8 @@
 
 #include "plystrain/materials/law.hpp"
 #include "plystrain/mesh/structured.hpp"
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 #include "plystrain/solver/model.hpp"
 
 #include <algorithm>
@@ -40,7 +40,7 @@ struct InflationPoint {
 };
 
 struct InflationRun {
-  solver::LoadPathResult path;
+  nonlinear::LoadPathResult path;
   std::vector<InflationPoint> points;
 };
 
@@ -84,18 +84,18 @@ inline InflationRun inflate_sphere(const InflationSpec& spec) {
   definition.threads = 1;  // tiny meshes: thread start-up would cost more than the work
   solver::Model model(mesh, definition);
 
-  solver::LoadStepperOptions options;
-  options.control = solver::ControlMode::arc_length;
+  nonlinear::LoadStepperOptions options;
+  options.control = nonlinear::ControlMode::arc_length;
   options.steps = spec.steps;
   options.max_increment = spec.max_increment;
   options.max_steps = 400;
   options.load_factor_end = 1e6;  // the path is ended by the stretch below
   options.newton.symmetry =
-      model.tangent_is_symmetric() ? solver::MatrixSymmetry::symmetric : solver::MatrixSymmetry::unsymmetric;
+      model.tangent_is_symmetric() ? nonlinear::MatrixSymmetry::symmetric : nonlinear::MatrixSymmetry::unsymmetric;
 
   InflationRun run;
-  solver::LoadStepperCallbacks callbacks;
-  callbacks.on_increment = [&](const solver::ConvergedIncrement& increment) {
+  nonlinear::LoadStepperCallbacks callbacks;
+  callbacks.on_increment = [&](const nonlinear::ConvergedIncrement& increment) {
     const Eigen::MatrixX2d u = model.displacements(increment.q, increment.load_factor);
     InflationPoint point;
     point.pressure = spec.reference_pressure * increment.load_factor;
@@ -104,8 +104,8 @@ inline InflationRun inflate_sphere(const InflationSpec& spec) {
     run.points.push_back(point);
     return point.inner_stretch < spec.stop_inner_stretch;
   };
-  solver::DirectSparseSolver linear_solver;
-  run.path = solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, callbacks);
+  nonlinear::DirectSparseSolver linear_solver;
+  run.path = nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options, callbacks);
   return run;
 }
 

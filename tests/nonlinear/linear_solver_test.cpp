@@ -1,4 +1,4 @@
-#include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -7,13 +7,13 @@
 #include <cmath>
 #include <vector>
 
-using plystrain::solver::DirectSparseSolver;
-using plystrain::solver::FactorizationMethod;
-using plystrain::solver::FactorizationStatus;
-using plystrain::solver::FillOrdering;
-using plystrain::solver::LinearSolverOptions;
-using plystrain::solver::MatrixSymmetry;
-using plystrain::solver::SparseMatrix;
+using plystrain::nonlinear::DirectSparseSolver;
+using plystrain::nonlinear::FactorizationMethod;
+using plystrain::nonlinear::FactorizationStatus;
+using plystrain::nonlinear::FillOrdering;
+using plystrain::nonlinear::LinearSolverOptions;
+using plystrain::nonlinear::MatrixSymmetry;
+using plystrain::nonlinear::SparseMatrix;
 
 namespace {
 
@@ -206,8 +206,8 @@ TEST_CASE("Bad matrices are reported, not thrown", "[linear_solver]") {
 TEST_CASE("The pattern fingerprint sees pattern changes, not value changes", "[linear_solver]") {
   const SparseMatrix a = grid_laplacian(6);
   SparseMatrix b = 2.0 * a;
-  CHECK(plystrain::solver::pattern_fingerprint(a) == plystrain::solver::pattern_fingerprint(b));
+  CHECK(plystrain::nonlinear::pattern_fingerprint(a) == plystrain::nonlinear::pattern_fingerprint(b));
   b.coeffRef(0, 7) = 1.0;
   b.makeCompressed();
-  CHECK(plystrain::solver::pattern_fingerprint(a) != plystrain::solver::pattern_fingerprint(b));
+  CHECK(plystrain::nonlinear::pattern_fingerprint(a) != plystrain::nonlinear::pattern_fingerprint(b));
 }

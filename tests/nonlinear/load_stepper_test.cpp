@@ -1,4 +1,4 @@
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include "nonlinear/test_systems.hpp"
 
@@ -10,13 +10,13 @@
 #include <map>
 #include <vector>
 
-using plystrain::solver::ControlMode;
-using plystrain::solver::DirectSparseSolver;
-using plystrain::solver::LoadStepperCallbacks;
-using plystrain::solver::LoadStepperOptions;
-using plystrain::solver::PathStatus;
-using plystrain::solver::Predictor;
-using plystrain::solver::solve_load_path;
+using plystrain::nonlinear::ControlMode;
+using plystrain::nonlinear::DirectSparseSolver;
+using plystrain::nonlinear::LoadStepperCallbacks;
+using plystrain::nonlinear::LoadStepperOptions;
+using plystrain::nonlinear::PathStatus;
+using plystrain::nonlinear::Predictor;
+using plystrain::nonlinear::solve_load_path;
 using plystrain::test::FailureInjector;
 using plystrain::test::HardeningSpringChain;
 using plystrain::test::VonMisesTruss;
@@ -26,7 +26,7 @@ namespace {
 // Every converged state on the chain matches Cardano's closed form, to the
 // accuracy the Newton tolerance (1e-8 on the residual) allows with the
 // chain's condition number (about 4 n^2 / pi^2 for n springs).
-void check_chain_states(const HardeningSpringChain& chain, const plystrain::solver::LoadPathResult& result) {
+void check_chain_states(const HardeningSpringChain& chain, const plystrain::nonlinear::LoadPathResult& result) {
   for (const auto& increment : result.increments) {
     const Eigen::VectorXd exact = chain.exact(increment.load_factor);
     CHECK((increment.q - exact).norm() <= 1e-7 * exact.norm());
@@ -43,11 +43,11 @@ TEST_CASE("Load control reaches the end and grows easy increments", "[load_stepp
   int callbacks_seen = 0;
   int iteration_lines = 0;
   LoadStepperCallbacks callbacks;
-  callbacks.on_increment = [&](const plystrain::solver::ConvergedIncrement&) {
+  callbacks.on_increment = [&](const plystrain::nonlinear::ConvergedIncrement&) {
     ++callbacks_seen;
     return true;
   };
-  callbacks.on_iteration = [&](int, const plystrain::solver::NewtonIterationRecord&) { ++iteration_lines; };
+  callbacks.on_iteration = [&](int, const plystrain::nonlinear::NewtonIterationRecord&) { ++iteration_lines; };
   const auto result = solve_load_path(chain, solver, Eigen::VectorXd::Zero(20), options, callbacks);
   REQUIRE(result.completed());
   CHECK(result.load_factor == 1.0);
@@ -85,7 +85,7 @@ TEST_CASE("Cut-back recovers from forced failures from the last converged state"
   options.steps = 4;
   int failures_seen = 0;
   LoadStepperCallbacks callbacks;
-  callbacks.on_failure = [&](const plystrain::solver::FailedAttempt& failure) {
+  callbacks.on_failure = [&](const plystrain::nonlinear::FailedAttempt& failure) {
     ++failures_seen;
     CHECK(failure.next_increment == Approx(0.5 * failure.increment));
   };
@@ -143,7 +143,7 @@ TEST_CASE("The caller can stop the path, and the step limit is honoured", "[load
   options.steps = 10;
   options.growth_factor = 1.0;
   LoadStepperCallbacks callbacks;
-  callbacks.on_increment = [](const plystrain::solver::ConvergedIncrement& increment) { return increment.index < 3; };
+  callbacks.on_increment = [](const plystrain::nonlinear::ConvergedIncrement& increment) { return increment.index < 3; };
   const auto stopped = solve_load_path(chain, solver, Eigen::VectorXd::Zero(5), options, callbacks);
   CHECK(stopped.status == PathStatus::stopped_by_caller);
   CHECK(stopped.increments.size() == 3);
@@ -247,7 +247,7 @@ TEST_CASE("The tangent predictor follows the bend of the path", "[load_stepper]"
   options.predictor = Predictor::tangent;
   std::map<int, double> start_residual;  // attempt -> residual at the predicted start
   LoadStepperCallbacks callbacks;
-  callbacks.on_iteration = [&](int attempt, const plystrain::solver::NewtonIterationRecord& record) {
+  callbacks.on_iteration = [&](int attempt, const plystrain::nonlinear::NewtonIterationRecord& record) {
     if (record.iteration == 0) {
       start_residual[attempt] = record.residual_norm;
     }
@@ -261,7 +261,7 @@ TEST_CASE("The tangent predictor follows the bend of the path", "[load_stepper]"
     const double from = 0.1 * (attempt - 1);
     const Eigen::VectorXd state = chain.exact(from);
     Eigen::VectorXd residual;
-    plystrain::solver::SparseMatrix tangent;
+    plystrain::nonlinear::SparseMatrix tangent;
     (void)chain.evaluate(state, from, residual, &tangent);
     Eigen::VectorXd load_column = Eigen::VectorXd::Zero(20);
     load_column(19) = -2.0;  // dR/dlambda: the end force P = 2 enters the residual with a minus sign
@@ -285,11 +285,11 @@ TEST_CASE("Growth after a cut-back stays below the size that failed", "[load_ste
   // The sizes of all attempts in order; failed ones negative.
   std::vector<double> attempts;
   LoadStepperCallbacks callbacks;
-  callbacks.on_increment = [&](const plystrain::solver::ConvergedIncrement& increment) {
+  callbacks.on_increment = [&](const plystrain::nonlinear::ConvergedIncrement& increment) {
     attempts.push_back(increment.increment);
     return true;
   };
-  callbacks.on_failure = [&](const plystrain::solver::FailedAttempt& failure) {
+  callbacks.on_failure = [&](const plystrain::nonlinear::FailedAttempt& failure) {
     attempts.push_back(-failure.increment);
   };
   const auto result = solve_load_path(failing, solver, Eigen::VectorXd::Zero(10), options, callbacks);

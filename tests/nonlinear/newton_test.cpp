@@ -1,4 +1,4 @@
-#include "plystrain/solver/newton.hpp"
+#include "plystrain/nonlinear/newton.hpp"
 
 #include "nonlinear/test_systems.hpp"
 
@@ -9,11 +9,11 @@
 #include <cmath>
 #include <vector>
 
-using plystrain::solver::DirectSparseSolver;
-using plystrain::solver::NewtonOptions;
-using plystrain::solver::NewtonStatus;
-using plystrain::solver::PathEquation;
-using plystrain::solver::solve_newton;
+using plystrain::nonlinear::DirectSparseSolver;
+using plystrain::nonlinear::NewtonOptions;
+using plystrain::nonlinear::NewtonStatus;
+using plystrain::nonlinear::PathEquation;
+using plystrain::nonlinear::solve_newton;
 using plystrain::test::ArctangentSystem;
 using plystrain::test::HardeningSpringChain;
 using plystrain::test::VonMisesTruss;
@@ -22,7 +22,7 @@ TEST_CASE("Test systems have tangents equal to finite differences", "[newton]") 
   HardeningSpringChain chain(6, 2.0, 0.7, 1.5);
   const Eigen::VectorXd q = Eigen::VectorXd::LinSpaced(6, 0.1, 0.9).array().square();
   Eigen::VectorXd residual;
-  plystrain::solver::SparseMatrix tangent;
+  plystrain::nonlinear::SparseMatrix tangent;
   REQUIRE(chain.evaluate(q, 0.4, residual, &tangent).ok());
   const Eigen::MatrixXd numeric = plystrain::test::finite_difference_tangent(chain, q, 0.4);
   CHECK((Eigen::MatrixXd(tangent) - numeric).norm() <= 1e-7 * numeric.norm());
@@ -104,11 +104,11 @@ TEST_CASE("The line search rescues Newton where full steps diverge", "[newton]")
 // r(q) = q^2 + 1 has no real root: |r| >= 1 wherever Newton goes, so an
 // iteration from q = 3 (|r| = 10) can fall towards 1 but never halve its
 // residual once there. Closed-form fact, no source needed.
-class NoRealRoot : public plystrain::solver::NonlinearSystem {
+class NoRealRoot : public plystrain::nonlinear::NonlinearSystem {
  public:
   [[nodiscard]] int size() const override { return 1; }
-  plystrain::solver::Evaluation evaluate(const Eigen::VectorXd& q, double, Eigen::VectorXd& residual,
-                                         plystrain::solver::SparseMatrix* tangent) override {
+  plystrain::nonlinear::Evaluation evaluate(const Eigen::VectorXd& q, double, Eigen::VectorXd& residual,
+                                         plystrain::nonlinear::SparseMatrix* tangent) override {
     residual = Eigen::VectorXd::Constant(1, q(0) * q(0) + 1.0);
     if (tangent != nullptr) {
       tangent->resize(1, 1);
@@ -182,12 +182,12 @@ TEST_CASE("Displacement control finds the load on the falling branch of the trus
 // form. From q = 0 the first Newton step (tangent 1) lands deep behind the
 // wall, where the residual is k times larger than at the start while the
 // energy's slope along the step changes sign just past the wall.
-class PenaltyWall : public plystrain::solver::NonlinearSystem {
+class PenaltyWall : public plystrain::nonlinear::NonlinearSystem {
  public:
   explicit PenaltyWall(double stiffness) : stiffness_(stiffness) {}
   [[nodiscard]] int size() const override { return 1; }
-  plystrain::solver::Evaluation evaluate(const Eigen::VectorXd& q, double, Eigen::VectorXd& residual,
-                                         plystrain::solver::SparseMatrix* tangent) override {
+  plystrain::nonlinear::Evaluation evaluate(const Eigen::VectorXd& q, double, Eigen::VectorXd& residual,
+                                         plystrain::nonlinear::SparseMatrix* tangent) override {
     const double behind = std::max(q(0) - 1.0, 0.0);
     residual = Eigen::VectorXd::Constant(1, q(0) - 3.0 + stiffness_ * behind);
     if (tangent != nullptr) {
@@ -216,7 +216,7 @@ TEST_CASE("The energy-slope line search stops a step at a penalty wall", "[newto
   by_norm.max_iterations = 60;
   by_norm.progress_window = 0;
   NewtonOptions by_slope = by_norm;
-  by_slope.line_search_merit = plystrain::solver::LineSearchMerit::energy_slope;
+  by_slope.line_search_merit = plystrain::nonlinear::LineSearchMerit::energy_slope;
 
   const auto norm_result = solve_newton(wall, solver, start, 1.0, by_norm);
   const auto slope_result = solve_newton(wall, solver, start, 1.0, by_slope);
@@ -247,7 +247,7 @@ TEST_CASE("The energy-slope line search also solves the arctangent from afar", "
   DirectSparseSolver solver;
   NewtonOptions options;
   options.max_iterations = 30;
-  options.line_search_merit = plystrain::solver::LineSearchMerit::energy_slope;
+  options.line_search_merit = plystrain::nonlinear::LineSearchMerit::energy_slope;
   const auto result = solve_newton(system, solver, Eigen::VectorXd::Constant(1, 3.0), 1.0, options);
   REQUIRE(result.converged());
   CHECK((result.q - centres).norm() < 1e-10);

@@ -2,7 +2,7 @@
 // the linear solver wrapper, Newton and the load stepper without the FE model.
 #pragma once
 
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/nonlinear/nonlinear_system.hpp"
 
 #include <Eigen/Core>
 #include <Eigen/SparseCore>
@@ -13,9 +13,9 @@
 
 namespace plystrain::test {
 
-using solver::Evaluation;
-using solver::EvaluationStatus;
-using solver::SparseMatrix;
+using nonlinear::Evaluation;
+using nonlinear::EvaluationStatus;
+using nonlinear::SparseMatrix;
 
 // A chain of n springs in series, node 0 fixed, a force P * lambda at the
 // free end; unknowns are the displacements of nodes 1..n. Each spring has
@@ -23,7 +23,7 @@ using solver::SparseMatrix;
 // carries the end force, so each extension solves the cubic
 // c e^3 + e - P lambda / k = 0, whose one real root (c > 0) is given by
 // Cardano's formula, and u_i = i e.
-class HardeningSpringChain : public solver::NonlinearSystem {
+class HardeningSpringChain : public nonlinear::NonlinearSystem {
  public:
   HardeningSpringChain(int springs, double stiffness, double cubic, double end_force)
       : springs_(springs), stiffness_(stiffness), cubic_(cubic), end_force_(end_force) {}
@@ -94,7 +94,7 @@ class HardeningSpringChain : public solver::NonlinearSystem {
 // vol. 1, 1991, ch. 1, with Green strain; derived here in these lines).
 // The sway stiffness d2Pi/du2 = 2 EA (L^2 + e l0^2) / l0^3 stays positive for
 // L^2 > H^2 / 2, so the symmetric path has no bifurcation.
-class VonMisesTruss : public solver::NonlinearSystem {
+class VonMisesTruss : public nonlinear::NonlinearSystem {
  public:
   VonMisesTruss(double half_span, double height, double axial_stiffness, double force)
       : span_(half_span), height_(height), stiffness_(axial_stiffness), force_(force),
@@ -149,7 +149,7 @@ class VonMisesTruss : public solver::NonlinearSystem {
 // value from memory, the condition follows from the Newton map), the
 // classic example for damping (Dennis & Schnabel, Numerical Methods for
 // Unconstrained Optimization and Nonlinear Equations, 1983, ch. 6).
-class ArctangentSystem : public solver::NonlinearSystem {
+class ArctangentSystem : public nonlinear::NonlinearSystem {
  public:
   explicit ArctangentSystem(Eigen::VectorXd centres) : centres_(std::move(centres)) {}
   [[nodiscard]] int size() const override { return static_cast<int>(centres_.size()); }
@@ -176,9 +176,9 @@ class ArctangentSystem : public solver::NonlinearSystem {
 // load factor is more than `max_jump` beyond the last accepted one, or beyond
 // `ceiling`; it throws beyond `throw_above`. For testing cut-back and the
 // handling of failures.
-class FailureInjector : public solver::NonlinearSystem {
+class FailureInjector : public nonlinear::NonlinearSystem {
  public:
-  explicit FailureInjector(solver::NonlinearSystem& inner) : inner_(inner) {}
+  explicit FailureInjector(nonlinear::NonlinearSystem& inner) : inner_(inner) {}
   double max_jump = 1e300;
   double ceiling = 1e300;
   double throw_above = 1e300;
@@ -202,12 +202,12 @@ class FailureInjector : public solver::NonlinearSystem {
   }
 
  private:
-  solver::NonlinearSystem& inner_;
+  nonlinear::NonlinearSystem& inner_;
   double accepted_load_ = 0.0;
 };
 
 // Central-difference tangent of a system's residual, dense.
-inline Eigen::MatrixXd finite_difference_tangent(solver::NonlinearSystem& system, const Eigen::VectorXd& q,
+inline Eigen::MatrixXd finite_difference_tangent(nonlinear::NonlinearSystem& system, const Eigen::VectorXd& q,
                                                  double load_factor, double step = 1e-6) {
   const int n = system.size();
   Eigen::MatrixXd result(n, n);

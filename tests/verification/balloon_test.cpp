@@ -41,7 +41,7 @@ TEST_CASE("thin neo-Hookean balloon follows Ogden's curve past the pressure maxi
   spec.max_increment = 0.1;
   const plystrain::test::InflationRun run = plystrain::test::inflate_sphere(spec);
   INFO(run.path.reason);
-  REQUIRE(run.path.status == plystrain::solver::PathStatus::stopped_by_caller);
+  REQUIRE(run.path.status == plystrain::nonlinear::PathStatus::stopped_by_caller);
   REQUIRE(run.points.size() > 10);
 
   double worst = 0.0;

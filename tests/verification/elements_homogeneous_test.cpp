@@ -18,8 +18,8 @@
 // homogeneous field into the interior for the larger ones.
 #include "fe/support.hpp"
 #include "plystrain/mesh/structured.hpp"
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 #include "plystrain/solver/post.hpp"
 
 #include <catch2/catch.hpp>
@@ -47,18 +47,18 @@ mesh::Mesh block(double width, double height, mesh::CellType type) {
 // The load path from rest to lambda = 1; a test fails (with the reason)
 // unless the path completes.
 Eigen::VectorXd solve_path(solver::Model& model) {
-  solver::DirectSparseSolver linear_solver;
-  solver::LoadStepperOptions options;
+  nonlinear::DirectSparseSolver linear_solver;
+  nonlinear::LoadStepperOptions options;
   options.steps = 10;
   options.geometric_ramp = true;
   options.ramp_first_fraction = 1e-3;
-  options.predictor = solver::Predictor::secant;
+  options.predictor = nonlinear::Predictor::secant;
   options.newton.residual_tolerance = 1e-10;
   options.newton.symmetry =
-      model.tangent_is_symmetric() ? solver::MatrixSymmetry::symmetric : solver::MatrixSymmetry::unsymmetric;
-  const solver::LoadPathResult path =
-      solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options);
-  INFO(solver::status_name(path.status) << ": " << path.reason << " after " << path.increments.size()
+      model.tangent_is_symmetric() ? nonlinear::MatrixSymmetry::symmetric : nonlinear::MatrixSymmetry::unsymmetric;
+  const nonlinear::LoadPathResult path =
+      nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options);
+  INFO(nonlinear::status_name(path.status) << ": " << path.reason << " after " << path.increments.size()
                                         << " increments, lambda = " << path.load_factor);
   REQUIRE(path.completed());
   return path.q;

@@ -5,7 +5,7 @@
 // Optimization and Nonlinear Equations, 1983, thm. 5.2.1). An inconsistent
 // tangent would show a linear rate instead.
 #include "nonlinear/strip_support.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -17,21 +17,21 @@
 
 TEST_CASE("Newton converges quadratically on a stretched and bent bilayer", "[verification][newton_rate]") {
   plystrain::solver::Model model = plystrain::test::stretched_bilayer(8, 0);
-  plystrain::solver::DirectSparseSolver linear_solver;
-  plystrain::solver::LoadStepperOptions options;
+  plystrain::nonlinear::DirectSparseSolver linear_solver;
+  plystrain::nonlinear::LoadStepperOptions options;
   options.steps = 4;
   options.growth_factor = 1.0;
   // The tangent predictor spreads the rigid face's motion over the strip
   // (starting from the last state would fold the cells along that face).
-  options.predictor = plystrain::solver::Predictor::tangent;
+  options.predictor = plystrain::nonlinear::Predictor::tangent;
   options.newton.residual_tolerance = 1e-12;
   options.newton.increment_tolerance = 1e-12;
   std::map<int, std::vector<double>> residuals;  // per attempt
-  plystrain::solver::LoadStepperCallbacks callbacks;
-  callbacks.on_iteration = [&](int attempt, const plystrain::solver::NewtonIterationRecord& record) {
+  plystrain::nonlinear::LoadStepperCallbacks callbacks;
+  callbacks.on_iteration = [&](int attempt, const plystrain::nonlinear::NewtonIterationRecord& record) {
     residuals[attempt].push_back(record.residual_norm);
   };
-  const auto path = plystrain::solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()),
+  const auto path = plystrain::nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()),
                                                        options, callbacks);
   INFO(path.reason);
   REQUIRE(path.completed());

@@ -43,7 +43,7 @@ Comparison run_and_compare(int cells_radial, int cells_angular) {
   const double ratio = spec.inner_radius / spec.outer_radius;
   const plystrain::test::InflationRun run = plystrain::test::inflate_sphere(spec);
   INFO(run.path.reason);
-  REQUIRE(run.path.status == plystrain::solver::PathStatus::stopped_by_caller);
+  REQUIRE(run.path.status == plystrain::nonlinear::PathStatus::stopped_by_caller);
   Comparison result;
   result.points = run.points.size();
   for (const auto& point : run.points) {

@@ -3,19 +3,19 @@
 // contract; common practice for reproducible FE results). Tolerance 1e-14
 // relative on the converged unknowns.
 #include "nonlinear/strip_support.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <catch2/catch.hpp>
 
 namespace {
 
-plystrain::solver::LoadPathResult solve_with_threads(int threads) {
+plystrain::nonlinear::LoadPathResult solve_with_threads(int threads) {
   plystrain::solver::Model model = plystrain::test::stretched_bilayer(12, threads);
-  plystrain::solver::DirectSparseSolver linear_solver;
-  plystrain::solver::LoadStepperOptions options;
+  plystrain::nonlinear::DirectSparseSolver linear_solver;
+  plystrain::nonlinear::LoadStepperOptions options;
   options.steps = 2;
-  options.predictor = plystrain::solver::Predictor::tangent;
-  return plystrain::solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options);
+  options.predictor = plystrain::nonlinear::Predictor::tangent;
+  return plystrain::nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options);
 }
 
 }  // namespace

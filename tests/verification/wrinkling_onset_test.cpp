@@ -16,7 +16,7 @@
 // The strain at which the negative pivot first appears is compared with
 // eps_c; the film is perfect and flat, so Newton stays on the flat path.
 #include "nonlinear/strip_support.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -60,19 +60,19 @@ TEST_CASE("The flat film turns unstable at the wrinkling strain", "[verification
   definition.displacements.push_back(squeeze);
   solver::Model model(mesh::layered_rectangle(spec), definition);
 
-  solver::DirectSparseSolver linear_solver;
-  solver::LoadStepperOptions options;
+  nonlinear::DirectSparseSolver linear_solver;
+  nonlinear::LoadStepperOptions options;
   options.steps = 30;  // 0.05 eps_c per increment
   options.growth_factor = 1.0;
-  options.predictor = solver::Predictor::tangent;
-  const solver::LoadPathResult path =
-      solver::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options);
+  options.predictor = nonlinear::Predictor::tangent;
+  const nonlinear::LoadPathResult path =
+      nonlinear::solve_load_path(model, linear_solver, Eigen::VectorXd::Zero(model.size()), options);
   INFO(path.reason);
   REQUIRE(path.completed());
 
   double last_stable = 0.0;
   double first_unstable = -1.0;
-  for (const solver::ConvergedIncrement& increment : path.increments) {
+  for (const nonlinear::ConvergedIncrement& increment : path.increments) {
     REQUIRE(increment.negative_pivots.has_value());
     const double strain = end_over_critical * critical_strain * increment.load_factor;
     if (*increment.negative_pivots == 0 && first_unstable < 0.0) {

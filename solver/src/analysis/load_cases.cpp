@@ -116,8 +116,8 @@ void set_third_direction(const LateralCondition& lateral, solver::ModelDefinitio
   }
 }
 
-solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
-  solver::LoadStepperOptions options;
+nonlinear::LoadStepperOptions stepper_options(const CaseSpec& spec) {
+  nonlinear::LoadStepperOptions options;
   options.steps = spec.load.steps.value;
   options.max_steps = spec.load.max_steps.value;
   options.max_increment = 1.0 / std::max(1, spec.load.steps.value) * 4.0;
@@ -127,7 +127,7 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
   // increments in Newton's basin while the stiffness is found. A debonded film span has almost no bending
   // stiffness, so it needs a far smaller first fraction (verification.md,
   // section 6).
-  options.predictor = solver::Predictor::tangent;
+  options.predictor = nonlinear::Predictor::tangent;
   options.geometric_ramp = true;
   options.ramp_first_fraction = 1e-3;
   options.ramp_growth_factor = 3.0;
@@ -159,7 +159,7 @@ solver::LoadStepperOptions stepper_options(const CaseSpec& spec) {
       // makes the residual norm jump while the energy hardly moves: the
       // search follows the energy (the press is conservative: hyperelastic
       // layers, frictionless or bonded penalty contact on a rigid surface).
-      options.newton.line_search_merit = solver::LineSearchMerit::energy_slope;
+      options.newton.line_search_merit = nonlinear::LineSearchMerit::energy_slope;
       options.easy_iterations = 15;
       options.newton.max_iterations = 40;
     }

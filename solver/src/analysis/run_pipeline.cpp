@@ -9,7 +9,7 @@
 #include "plystrain/solver/convergence_check.hpp"
 #include "plystrain/solver/field_writer.hpp"
 #include "plystrain/solver/limit_crossings.hpp"
-#include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
 #include "plystrain/solver/local_checks.hpp"
 #include "plystrain/solver/results_writers.hpp"
 #include "plystrain/solver/stack_analysis.hpp"
@@ -270,18 +270,18 @@ std::optional<UndisturbedState> solve_undisturbed(const CaseSpec& spec, std::siz
   LoadCase& load_case = cases.at(index);
   load_case.definition.threads = threads;
   solver::Model model(grid, load_case.definition);
-  solver::DirectSparseSolver linear_solver;
+  nonlinear::DirectSparseSolver linear_solver;
   load_case.stepper.newton.symmetry = model.tangent_is_symmetric()
-                                          ? solver::MatrixSymmetry::symmetric
-                                          : solver::MatrixSymmetry::unsymmetric;
+                                          ? nonlinear::MatrixSymmetry::symmetric
+                                          : nonlinear::MatrixSymmetry::unsymmetric;
   load_case.stepper.keep_states = false;
-  solver::LoadStepperCallbacks callbacks;
-  callbacks.on_iteration = [&](int, const solver::NewtonIterationRecord&) {
+  nonlinear::LoadStepperCallbacks callbacks;
+  callbacks.on_iteration = [&](int, const nonlinear::NewtonIterationRecord&) {
     if (!asked_to_stop(stop_requested).empty()) {
       throw StopRequested();
     }
   };
-  const solver::LoadPathResult path = solver::solve_load_path(
+  const nonlinear::LoadPathResult path = nonlinear::solve_load_path(
       model, linear_solver, Eigen::VectorXd::Zero(model.size()), load_case.stepper, callbacks);
   if (!path.completed()) {
     log.line("undisturbed state: stopped at load factor " + format("%.4f", path.load_factor) +
@@ -445,23 +445,23 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
     log.line(prefix + "model " + solver::kinematics_name(load_case.definition.kinematics) + ", " +
              std::to_string(model.size()) + " unknowns");
 
-    solver::DirectSparseSolver linear_solver;
+    nonlinear::DirectSparseSolver linear_solver;
     load_case.stepper.newton.symmetry = model.tangent_is_symmetric()
-                                            ? solver::MatrixSymmetry::symmetric
-                                            : solver::MatrixSymmetry::unsymmetric;
+                                            ? nonlinear::MatrixSymmetry::symmetric
+                                            : nonlinear::MatrixSymmetry::unsymmetric;
     // Time in the field series: the run index plus the load factor, so the
     // slider plays each bend radius in turn.
     const double time_offset = static_cast<double>(index);
     LimitCrossings crossings;
-    solver::LoadStepperCallbacks callbacks;
-    callbacks.on_iteration = [&](int attempt, const solver::NewtonIterationRecord& record) {
+    nonlinear::LoadStepperCallbacks callbacks;
+    callbacks.on_iteration = [&](int attempt, const nonlinear::NewtonIterationRecord& record) {
       std::ostringstream line;
       line << "  attempt " << attempt << ", iteration " << record.iteration << ": residual "
            << record.residual_norm << ", increment " << record.increment_norm << ", step "
            << record.line_search_factor;
-      if (record.method != solver::FactorizationMethod::none) {
+      if (record.method != nonlinear::FactorizationMethod::none) {
         line << "; assembly " << format("%.3f", record.assemble_seconds) << " s, "
-             << solver::method_name(record.method) << " " << format("%.3f", record.factorize_seconds) << " s";
+             << nonlinear::method_name(record.method) << " " << format("%.3f", record.factorize_seconds) << " s";
         if (record.analyse_seconds > 0.0) {
           line << " (analysis " << format("%.3f", record.analyse_seconds) << " s)";
         }
@@ -471,16 +471,16 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
         throw StopRequested();
       }
     };
-    callbacks.on_failure = [&](const solver::FailedAttempt& failure) {
+    callbacks.on_failure = [&](const nonlinear::FailedAttempt& failure) {
       std::ostringstream line;
       line << prefix << "increment of " << failure.increment << " failed ("
-           << solver::status_name(failure.status) << (failure.detail.empty() ? "" : ": ")
+           << nonlinear::status_name(failure.status) << (failure.detail.empty() ? "" : ": ")
            << failure.detail << "); next " << failure.next_increment;
       log.line(line.str());
       say(line.str());
       ++run.solver.cutbacks;
     };
-    callbacks.on_increment = [&](const solver::ConvergedIncrement& increment) {
+    callbacks.on_increment = [&](const nonlinear::ConvergedIncrement& increment) {
       std::ostringstream line;
       line << prefix << "increment " << increment.index << ": load factor "
            << format("%.4f", increment.load_factor) << ", " << increment.newton_iterations
@@ -511,8 +511,8 @@ RunOutcome run_case(const CaseSpec& spec_as_given, const RunOptions& options) {
     };
 
     const Eigen::VectorXd q_start = Eigen::VectorXd::Zero(model.size());
-    const solver::LoadPathResult path =
-        solver::solve_load_path(model, linear_solver, q_start, load_case.stepper, callbacks);
+    const nonlinear::LoadPathResult path =
+        nonlinear::solve_load_path(model, linear_solver, q_start, load_case.stepper, callbacks);
     run.solver.increments += static_cast<int>(path.increments.size());
     run.solver.newton_iterations += path.newton_iterations;
     if (!stop_reason().empty()) {

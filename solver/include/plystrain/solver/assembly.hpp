@@ -4,7 +4,7 @@
 #pragma once
 
 #include "plystrain/solver/constraints.hpp"
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/solver/nonlinear_contract.hpp"
 
 #include <span>
 #include <vector>

@@ -14,7 +14,7 @@
 
 #include "plystrain/materials/law.hpp"
 #include "plystrain/mesh/mesh.hpp"
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/solver/nonlinear_contract.hpp"
 #include "plystrain/solver/rigid_surface.hpp"
 
 #include <Eigen/Core>

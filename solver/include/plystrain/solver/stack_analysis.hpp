@@ -6,7 +6,7 @@
 
 #include "plystrain/mesh/mesh.hpp"
 #include "plystrain/solver/case_spec.hpp"
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 #include "plystrain/solver/model.hpp"
 #include "plystrain/solver/post.hpp"
 #include "plystrain/solver/results.hpp"
@@ -22,7 +22,7 @@ struct LoadCase {
   std::string label;  // "" for a single solve, e.g. "radius 25000 um" otherwise
   double bend_radius = 0.0;  // um, bend only
   solver::ModelDefinition definition;
-  solver::LoadStepperOptions stepper;
+  nonlinear::LoadStepperOptions stepper;
 };
 
 // The node set the analyses add to the mesh to remove rigid motion through

@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <limits>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 ConvergenceMonitor::ConvergenceMonitor(const NewtonOptions& options, double start_norm, double reference_residual,
                                        double q_start_norm)
@@ -83,4 +83,4 @@ void ConvergenceMonitor::step_taken(int iteration, double increment, double resi
   }
 }
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

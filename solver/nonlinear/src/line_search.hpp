@@ -3,12 +3,12 @@
 // residual is an energy's gradient); NewtonOptions documents both.
 #pragma once
 
-#include "plystrain/solver/newton.hpp"
+#include "plystrain/nonlinear/newton.hpp"
 
 #include <functional>
 #include <optional>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 // The outcome of a line search along a Newton step dq: the factor a taken
 // (0 when no trial point could be evaluated), the evaluations beyond the
@@ -32,4 +32,4 @@ LineSearch search_energy_slope(double slope_at_start, std::optional<double> full
                                const std::function<std::optional<double>(double)>& slope_at,
                                const NewtonOptions& options);
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

@@ -8,8 +8,8 @@
 // result, with the iterate reached and the history of iterations.
 #pragma once
 
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/nonlinear_system.hpp"
 
 #include <Eigen/Core>
 
@@ -18,7 +18,7 @@
 #include <string>
 #include <vector>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 // Convergence: with r_k = |R(q_k)| and d_k = |q_k - q_{k-1}| (Euclidean),
 // an iterate k >= 1 is converged when
@@ -161,4 +161,4 @@ using NewtonIterationCallback = std::function<void(const NewtonIterationRecord&)
                                         double reference_residual = 0.0,
                                         const NewtonIterationCallback& on_iteration = {});
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

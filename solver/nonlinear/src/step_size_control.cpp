@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 namespace {
 
@@ -48,4 +48,4 @@ void StepSizeControl::failed(double attempted, double position) {
   ramping_ = false;
 }
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

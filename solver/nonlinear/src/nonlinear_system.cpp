@@ -1,9 +1,9 @@
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/nonlinear/nonlinear_system.hpp"
 
 #include <algorithm>
 #include <cmath>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 const char* status_name(EvaluationStatus status) {
   switch (status) {
@@ -33,4 +33,4 @@ Evaluation NonlinearSystem::load_derivative(const Eigen::VectorXd& q, double loa
   return {};
 }
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

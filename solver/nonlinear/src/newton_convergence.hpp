@@ -2,7 +2,7 @@
 // kept apart from the iteration that they judge.
 #pragma once
 
-#include "plystrain/solver/newton.hpp"
+#include "plystrain/nonlinear/newton.hpp"
 
 #include <cstddef>
 #include <optional>
@@ -10,7 +10,7 @@
 #include <utility>
 #include <vector>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 class ConvergenceMonitor {
  public:
@@ -54,4 +54,4 @@ class ConvergenceMonitor {
   std::size_t equations_since_ = 0;  // index in history_ of the first iteration on the current equations
 };
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

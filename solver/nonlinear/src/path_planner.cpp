@@ -5,7 +5,7 @@
 #include <limits>
 #include <utility>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 PathPlanner::PathPlanner(NonlinearSystem& system, LinearSolver& linear_solver, const LoadStepperOptions& options,
                          double controlled_start)
@@ -159,4 +159,4 @@ Plan PathPlanner::plan(const PathState& state, double size) {
   return plan;
 }
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

@@ -4,7 +4,7 @@
 #include <cmath>
 #include <limits>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 // Backtracking (Armijo) on |R|; see NewtonOptions. residual_at(a) evaluates
 // the trial point and returns its residual norm (infinity on failure).
@@ -104,4 +104,4 @@ LineSearch search_energy_slope(double slope_at_start, std::optional<double> full
 }
 
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

@@ -8,9 +8,9 @@
 // an exception past a converged increment.
 #pragma once
 
-#include "plystrain/solver/linear_solver.hpp"
-#include "plystrain/solver/newton.hpp"
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
+#include "plystrain/nonlinear/newton.hpp"
+#include "plystrain/nonlinear/nonlinear_system.hpp"
 
 #include <Eigen/Core>
 
@@ -19,7 +19,7 @@
 #include <string>
 #include <vector>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 enum class ControlMode {
   // lambda goes from 0 to 1.
@@ -137,4 +137,4 @@ struct LoadStepperCallbacks {
                                              const Eigen::VectorXd& q_start, const LoadStepperOptions& options,
                                              const LoadStepperCallbacks& callbacks = {});
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

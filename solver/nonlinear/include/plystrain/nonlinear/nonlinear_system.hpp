@@ -8,7 +8,7 @@
 
 #include <string>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 // Column-major, both triangles stored (symmetric tangents are stored in full).
 using SparseMatrix = Eigen::SparseMatrix<double, Eigen::ColMajor, int>;
@@ -71,4 +71,4 @@ class NonlinearSystem {
   }
 };
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

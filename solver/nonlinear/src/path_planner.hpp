@@ -3,13 +3,13 @@
 // arc-length equation).
 #pragma once
 
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <Eigen/Core>
 
 #include <optional>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 struct PathPoint {
   Eigen::VectorXd q;
@@ -61,4 +61,4 @@ class PathPlanner {
   bool factor_at_current_ = false;
 };
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

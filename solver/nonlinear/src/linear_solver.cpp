@@ -1,4 +1,4 @@
-#include "plystrain/solver/linear_solver.hpp"
+#include "plystrain/nonlinear/linear_solver.hpp"
 
 #include <cholmod.h>
 #include <umfpack.h>
@@ -10,7 +10,7 @@
 #include <string>
 #include <utility>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 namespace {
 
@@ -490,4 +490,4 @@ SolveReport DirectSparseSolver::solve(const Eigen::VectorXd& rhs, Eigen::VectorX
   return report;
 }
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

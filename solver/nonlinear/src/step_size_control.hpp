@@ -4,11 +4,11 @@
 // (LoadStepperOptions documents the settings).
 #pragma once
 
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include <limits>
 
-namespace plystrain::solver::detail {
+namespace plystrain::nonlinear::detail {
 
 class StepSizeControl {
  public:
@@ -43,4 +43,4 @@ class StepSizeControl {
   double ceiling_ends_at_ = 0.0;
 };
 
-}  // namespace plystrain::solver::detail
+}  // namespace plystrain::nonlinear::detail

@@ -1,4 +1,4 @@
-#include "plystrain/solver/newton.hpp"
+#include "plystrain/nonlinear/newton.hpp"
 
 #include "line_search.hpp"
 #include "newton_convergence.hpp"
@@ -10,7 +10,7 @@
 #include <string>
 #include <utility>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 namespace {
 
@@ -349,4 +349,4 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
   }
 }
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

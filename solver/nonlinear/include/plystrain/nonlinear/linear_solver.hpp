@@ -10,7 +10,7 @@
 // UMFPACK directly. Every failure comes back as data.
 #pragma once
 
-#include "plystrain/solver/nonlinear_system.hpp"
+#include "plystrain/nonlinear/nonlinear_system.hpp"
 
 #include <Eigen/Core>
 
@@ -19,7 +19,7 @@
 #include <optional>
 #include <string>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 enum class MatrixSymmetry { symmetric, unsymmetric };
 
@@ -133,4 +133,4 @@ class DirectSparseSolver final : public LinearSolver {
 // Used to decide whether a symbolic analysis can be reused.
 [[nodiscard]] std::uint64_t pattern_fingerprint(const SparseMatrix& matrix);
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear

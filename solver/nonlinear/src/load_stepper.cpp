@@ -1,4 +1,4 @@
-#include "plystrain/solver/load_stepper.hpp"
+#include "plystrain/nonlinear/load_stepper.hpp"
 
 #include "path_planner.hpp"
 #include "step_size_control.hpp"
@@ -10,7 +10,7 @@
 #include <string>
 #include <utility>
 
-namespace plystrain::solver {
+namespace plystrain::nonlinear {
 
 namespace {
 
@@ -251,4 +251,4 @@ LoadPathResult solve_load_path(NonlinearSystem& system, LinearSolver& linear_sol
   }
 }
 
-}  // namespace plystrain::solver
+}  // namespace plystrain::nonlinear
