@@ -1,5 +1,7 @@
 #include "plystrain/nonlinear/linear_solver.hpp"
 
+#include "stopwatch.hpp"
+
 #include <cholmod.h>
 #include <umfpack.h>
 
@@ -13,10 +15,6 @@
 namespace plystrain::nonlinear {
 
 namespace {
-
-double seconds_since(std::chrono::steady_clock::time_point start) {
-  return std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-}
 
 // A read-only CHOLMOD view of a compressed Eigen matrix (no copy). CHOLMOD's
 // API takes non-const pointers but does not write through them here.
@@ -216,14 +214,14 @@ struct DirectSparseSolver::Backend {
                     FactorizationReport& report);
 
   AnalysisReport analyse_symmetric(const SparseMatrix& matrix, bool want_supernodal, std::uint64_t pattern) {
-    const auto start = std::chrono::steady_clock::now();
+    const detail::Stopwatch start;
     cholmod_factor*& factor = want_supernodal ? supernodal : simplicial;
     free_cholmod_factor(factor);
     cholmod_sparse view = cholmod_view(matrix, 1);
     common.supernodal = want_supernodal ? CHOLMOD_SUPERNODAL : CHOLMOD_SIMPLICIAL;
     factor = cholmod_analyze(&view, &common);
     AnalysisReport report;
-    report.seconds = seconds_since(start);
+    report.seconds = start.seconds();
     if (factor == nullptr || common.status < CHOLMOD_OK) {
       report.ok = false;
       report.detail = "CHOLMOD analysis failed: " + cholmod_status_text(common.status);
@@ -270,9 +268,9 @@ AnalysisReport DirectSparseSolver::analyse(const SparseMatrix& input, MatrixSymm
     return backend_->analyse_symmetric(matrix, true, pattern);
   }
   AnalysisReport report;
-  const auto start = std::chrono::steady_clock::now();
+  const detail::Stopwatch start;
   report.ok = backend_->analyse_lu(matrix, false, pattern, report.detail);
-  report.seconds = seconds_since(start);
+  report.seconds = start.seconds();
   return report;
 }
 
@@ -293,11 +291,11 @@ bool DirectSparseSolver::Backend::factorize_cholmod(const SparseMatrix& matrix, 
       return false;
     }
   }
-  const auto start = std::chrono::steady_clock::now();
+  const detail::Stopwatch start;
   cholmod_sparse view = cholmod_view(matrix, 1);
   b.common.final_ll = supernodal_factor ? 1 : 0;
   const int success = cholmod_factorize(&view, factor, &b.common);
-  report.factorize_seconds += seconds_since(start);
+  report.factorize_seconds += start.seconds();
   report.method = supernodal_factor ? FactorizationMethod::cholesky_supernodal : FactorizationMethod::ldlt_simplicial;
   if (success == 0 || b.common.status < CHOLMOD_OK) {
     report.status = from_cholmod_error(b.common.status);
@@ -345,11 +343,11 @@ bool DirectSparseSolver::Backend::factorize_lu(const SparseMatrix& matrix, std::
   Backend& b = *this;
   if (b.lu_symbolic == nullptr || b.lu_pattern != pattern || b.lu_symmetric_strategy != symmetric_strategy) {
     report.pattern_changed = report.pattern_changed || b.lu_symbolic != nullptr;
-    const auto start = std::chrono::steady_clock::now();
+    const detail::Stopwatch start;
     std::string detail;
     const bool analysed = b.analyse_lu(matrix, symmetric_strategy, pattern, detail);
     report.analysed = true;
-    report.analyse_seconds += seconds_since(start);
+    report.analyse_seconds += start.seconds();
     if (!analysed) {
       report.status = FactorizationStatus::numerical_failure;
       report.detail = detail;
@@ -359,11 +357,11 @@ bool DirectSparseSolver::Backend::factorize_lu(const SparseMatrix& matrix, std::
   if (b.lu_numeric != nullptr) {
     umfpack_di_free_numeric(&b.lu_numeric);
   }
-  const auto start = std::chrono::steady_clock::now();
+  const detail::Stopwatch start;
   std::array<double, UMFPACK_INFO> info{};
   const int code = umfpack_di_numeric(matrix.outerIndexPtr(), matrix.innerIndexPtr(), matrix.valuePtr(),
                                       b.lu_symbolic, &b.lu_numeric, b.lu_control.data(), info.data());
-  report.factorize_seconds += seconds_since(start);
+  report.factorize_seconds += start.seconds();
   report.method = FactorizationMethod::lu;
   report.negative_pivots.reset();
   report.zero_pivots.reset();
@@ -449,7 +447,7 @@ FactorizationReport DirectSparseSolver::factorize(const SparseMatrix& input, Mat
 SolveReport DirectSparseSolver::solve(const Eigen::VectorXd& rhs, Eigen::VectorXd& solution) {
   Backend& b = *backend_;
   SolveReport report;
-  const auto start = std::chrono::steady_clock::now();
+  const detail::Stopwatch start;
   if (b.active == FactorizationMethod::none) {
     report.ok = false;
     report.detail = "no successful factorization to solve with";
@@ -486,7 +484,7 @@ SolveReport DirectSparseSolver::solve(const Eigen::VectorXd& rhs, Eigen::VectorX
     report.ok = false;
     report.detail = "solution has non-finite entries";
   }
-  report.seconds = seconds_since(start);
+  report.seconds = start.seconds();
   return report;
 }
 

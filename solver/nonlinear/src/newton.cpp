@@ -2,6 +2,7 @@
 
 #include "line_search.hpp"
 #include "newton_convergence.hpp"
+#include "stopwatch.hpp"
 
 #include <chrono>
 #include <cmath>
@@ -14,12 +15,7 @@ namespace plystrain::nonlinear {
 
 namespace {
 
-using Clock = std::chrono::steady_clock;
 using Failure = std::pair<NewtonStatus, std::string>;
-
-double seconds_since(Clock::time_point start) {
-  return std::chrono::duration<double>(Clock::now() - start).count();
-}
 
 // The norm used by the merit function; a failed evaluation is "infinitely bad".
 double residual_norm_or_infinity(const Evaluation& evaluation, const Eigen::VectorXd& residual) {
@@ -56,9 +52,9 @@ class NewtonIteration {
 
   // Residual and tangent at the start point; its residual norm.
   std::optional<Failure> start(double& residual_norm) {
-    const auto start = Clock::now();
+    const detail::Stopwatch start;
     const Evaluation evaluation = system_.evaluate(result_.q, result_.load_factor, residual_, &tangent_);
-    record_.assemble_seconds = seconds_since(start);
+    record_.assemble_seconds = start.seconds();
     if (!evaluation.ok()) {
       return Failure{NewtonStatus::evaluation_failed,
                      std::string(status_name(evaluation.status)) + " at the start point: " + evaluation.detail};
@@ -79,9 +75,9 @@ class NewtonIteration {
       return std::nullopt;
     }
     ++result_.active_set_updates;
-    const auto start = Clock::now();
+    const detail::Stopwatch start;
     const Evaluation evaluation = system_.evaluate(result_.q, result_.load_factor, residual_, &tangent_);
-    record_.assemble_seconds += seconds_since(start);
+    record_.assemble_seconds += start.seconds();
     if (!evaluation.ok()) {
       failure = Failure{NewtonStatus::evaluation_failed, std::string(status_name(evaluation.status)) +
                                                              " after an active-set update: " + evaluation.detail};
@@ -115,9 +111,9 @@ class NewtonIteration {
       step_ = load_step_;
       return finite_step();
     }
-    const auto start = Clock::now();
+    const detail::Stopwatch start;
     const Evaluation evaluation = system_.load_derivative(result_.q, result_.load_factor, load_column_);
-    record_.assemble_seconds += seconds_since(start);
+    record_.assemble_seconds += start.seconds();
     if (!evaluation.ok()) {
       return Failure{NewtonStatus::evaluation_failed,
                      std::string("load derivative: ") + status_name(evaluation.status) + ": " + evaluation.detail};
@@ -147,9 +143,9 @@ class NewtonIteration {
     factor_ = 1.0;
     trial_q_.noalias() = result_.q + step_;
     trial_load_ = result_.load_factor + load_change_;
-    auto start = Clock::now();
+    detail::Stopwatch start;
     trial_evaluation_ = system_.evaluate(trial_q_, trial_load_, trial_residual_, &tangent_);
-    record_.assemble_seconds += seconds_since(start);
+    record_.assemble_seconds += start.seconds();
     bool tangent_current = trial_evaluation_.ok();
     if (options_.line_search) {
       if (std::optional<Failure> failure = line_search(tangent_current)) {
@@ -160,9 +156,9 @@ class NewtonIteration {
                      std::string(status_name(trial_evaluation_.status)) + ": " + trial_evaluation_.detail};
     }
     if (!tangent_current) {
-      start = Clock::now();
+      start = detail::Stopwatch{};
       const Evaluation evaluation = system_.evaluate(trial_q_, trial_load_, trial_residual_, &tangent_);
-      record_.assemble_seconds += seconds_since(start);
+      record_.assemble_seconds += start.seconds();
       if (!evaluation.ok()) {
         return Failure{NewtonStatus::evaluation_failed,
                        std::string(status_name(evaluation.status)) + ": " + evaluation.detail};
@@ -193,9 +189,9 @@ class NewtonIteration {
   bool evaluate_trial(double trial_factor) {
     trial_q_.noalias() = result_.q + trial_factor * step_;
     trial_load_ = result_.load_factor + trial_factor * load_change_;
-    const auto start = Clock::now();
+    const detail::Stopwatch start;
     trial_evaluation_ = system_.evaluate(trial_q_, trial_load_, trial_residual_, nullptr);
-    record_.assemble_seconds += seconds_since(start);
+    record_.assemble_seconds += start.seconds();
     return trial_evaluation_.ok();
   }
 
