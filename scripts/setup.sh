@@ -12,11 +12,13 @@ set -euo pipefail
 preset="${1:-release}"
 root_dir="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 
-# Build toolchain plus every library the project links (see DEVELOPERS.md).
+# Build toolchain plus every library the project links (see DEVELOPERS.md),
+# and python3 for the check scripts that scripts/test runs.
 packages=(
   build-essential cmake git ca-certificates
   libeigen3-dev libgmsh-dev libvtk9-dev libcli11-dev catch2
   libtomlplusplus-dev libsuitesparse-dev libopenblas-dev nlohmann-json3-dev ccache
+  python3
 )
 
 missing=()
