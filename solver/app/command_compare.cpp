@@ -71,6 +71,7 @@ Command add_compare_command(CLI::App& app) {
                   "`plystrain run`, or remove the [sweep] table to compare the variants");
             }
             const std::vector<ResolvedCase> variants = resolve_variants(base);
+            check_reruns_fit(base, false);
             if (variants.empty()) {
               throw InputError(SourceLocation{base.source.string(), 0, 0}, "variant",
                                "compare needs at least one [[variant]] in the case");

@@ -65,9 +65,10 @@ struct OutputChoice {
 int run_into_output_folder(const OutputChoice& output,
                            const std::function<int(const std::filesystem::path&)>& work);
 
-// Refuses (InputError naming report.verify or --verify) a case whose
-// convergence check would rerun it on a mesh past the mesh limit: the check
-// halves both mesh sizes, about four times the cells.
+// Refuses (InputError naming report.verify or --verify) a case, one of its
+// sweep values or one of its variants whose convergence check would rerun it
+// on a mesh past the mesh limit: the check halves both mesh sizes, about
+// four times the cells.
 void check_reruns_fit(const CaseSpec& spec, bool verify_flag);
 
 Command add_check_command(CLI::App& app);

@@ -8,6 +8,7 @@
 #include "plystrain/solver/case_variants.hpp"
 #include "plystrain/solver/convergence_check.hpp"
 #include "plystrain/solver/input_error.hpp"
+#include "plystrain/solver/input_text.hpp"
 
 #include <cmath>
 #include <exception>
@@ -19,14 +20,6 @@ namespace plystrain::cli {
 namespace {
 
 // Digits in groups of three, as the case checks print counts.
-std::string grouped(long long value) {
-  std::string digits = std::to_string(value);
-  for (int at = static_cast<int>(digits.size()) - 3; at > 0; at -= 3) {
-    digits.insert(static_cast<std::size_t>(at), ",");
-  }
-  return digits;
-}
-
 // The convergence check reruns the case on a mesh with half the sizes,
 // about four times the cells: refused before anything is solved when that
 // rerun would pass the mesh limit that check applies to the case itself.
@@ -40,15 +33,12 @@ void check_one_case_reruns_fit(const CaseSpec& spec, bool verify_flag) {
       continue;
     }
     const bool by_key = !verify_flag && spec.report.verify.given;
-    SourceLocation where = by_key ? spec.report.verify.where : spec.title.where;
-    if (!by_key) {
-      where.line = 0;
-      where.column = 0;
-    }
-    const std::string count = grouped(static_cast<long long>(std::llround(cells)));
+    const SourceLocation where = by_key ? spec.report.verify.where : SourceLocation{spec.source.string(), 0, 0};
     throw InputError(where, by_key ? "report.verify" : "--verify",
                      "the convergence check would rerun the case with its " + plan.what + ", about " +
-                         count + " cells, more than the limit of " + grouped(static_cast<long long>(limits::mesh_cells)) +
+                         grouped_count(static_cast<std::size_t>(std::llround(cells))) +
+                         " cells, more than the limit of " +
+                         grouped_count(static_cast<std::size_t>(limits::mesh_cells)) +
                          "; larger mesh sizes or a narrower width leave room for it, or run without the check");
   }
 }
@@ -56,12 +46,16 @@ void check_one_case_reruns_fit(const CaseSpec& spec, bool verify_flag) {
 }  // namespace
 
 void check_reruns_fit(const CaseSpec& spec, bool verify_flag) {
-  if (!spec.sweep) {
-    check_one_case_reruns_fit(spec, verify_flag);
+  if (spec.sweep) {
+    for (const ResolvedCase& value : resolve_sweep(spec)) {
+      check_one_case_reruns_fit(value.spec, verify_flag);
+    }
     return;
   }
-  for (const ResolvedCase& value : resolve_sweep(spec)) {
-    check_one_case_reruns_fit(value.spec, verify_flag);
+  check_one_case_reruns_fit(spec, verify_flag);
+  // compare runs every variant with the case's own report.verify.
+  for (const ResolvedCase& variant : resolve_variants(spec)) {
+    check_one_case_reruns_fit(variant.spec, verify_flag);
   }
 }
 

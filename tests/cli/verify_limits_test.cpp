@@ -54,5 +54,19 @@ TEST_CASE("a convergence check whose rerun would pass the mesh limit is refused 
     CHECK(by_key.err.find("report.verify: the convergence check would rerun") != std::string::npos);
   }
   CHECK_FALSE(fs::exists(out));
+
+  // compare reruns every variant with the case's report.verify: a variant
+  // that widens the narrow case past the limit is refused before solving.
+  std::string narrow = read_text(data_path("cli/homogeneous-strip-free.toml"));
+  const int narrow_verify_line = static_cast<int>(std::count(narrow.begin(), narrow.end(), '\n')) + 1;
+  narrow += "verify = true\n\n[[variant]]\nname = \"wide\"\nset = { \"geometry.width\" = 200000.0 }\n";
+  const fs::path with_variant = scratch / "variant.toml";
+  std::ofstream(with_variant) << narrow;
+  const auto compared = run_plystrain("compare '" + with_variant.string() + "' --out '" + out.string() + "'");
+  INFO(compared.err);
+  CHECK(compared.exit_code == 2);
+  CHECK(compared.err.rfind(with_variant.string() + ":" + std::to_string(narrow_verify_line) + ":", 0) == 0);
+  CHECK(compared.err.find("report.verify: the convergence check would rerun") != std::string::npos);
+  CHECK_FALSE(fs::exists(out));
   fs::remove_all(scratch);
 }
