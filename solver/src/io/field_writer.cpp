@@ -173,18 +173,11 @@ void write_field_vtu(const std::filesystem::path& path, const mesh::Mesh& mesh,
                             snapshot.displacement(node, 1) / length_scale, 0.0);
   }
 
-  for (int c = 0; c < mesh.cell_count(); ++c) {
-    const mesh::Cell& cell = mesh.cells[static_cast<std::size_t>(c)];
-    for (int i = 0; i < cell.size(); ++i) {
-      const int node = cell.nodes[static_cast<std::size_t>(i)];
-      if (node < 0 || node >= mesh.node_count()) {
-        throw std::invalid_argument(std::string("field output: cell ") + std::to_string(c) +
-                                    std::string(" refers to node ") + std::to_string(node) +
-                                    ", outside the mesh");
-      }
-    }
-  }
   const auto grid = io::layered_cell_grid(mesh, points, [&](int cell, int node) {
+    if (node < 0 || node >= mesh.node_count()) {
+      throw std::invalid_argument(std::string("field output: cell ") + std::to_string(cell) +
+                                  std::string(" refers to node ") + std::to_string(node) + ", outside the mesh");
+    }
     return copy_of(by_node, node, mesh.cells[static_cast<std::size_t>(cell)].region);
   });
   grid->GetPointData()->AddArray(displacement);
