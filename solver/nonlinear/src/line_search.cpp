@@ -103,5 +103,4 @@ LineSearch search_energy_slope(double slope_at_start, std::optional<double> full
   return search;
 }
 
-
 }  // namespace plystrain::nonlinear::detail

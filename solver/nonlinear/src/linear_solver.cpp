@@ -6,7 +6,6 @@
 #include <umfpack.h>
 
 #include <array>
-#include <chrono>
 #include <cmath>
 #include <cstring>
 #include <string>

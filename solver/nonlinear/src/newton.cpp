@@ -4,7 +4,6 @@
 #include "newton_convergence.hpp"
 #include "stopwatch.hpp"
 
-#include <chrono>
 #include <cmath>
 #include <limits>
 #include <optional>
@@ -138,8 +137,8 @@ class NewtonIteration {
 
   // The full step first, with the tangent: when it is accepted (the usual
   // case) no evaluation is wasted; otherwise the line search's factor, and
-  // the tangent there. Moves the iterate.
-  std::optional<Failure> search_and_move() {
+  // the tangent there. Moves the iterate; residual_norm is |R| at the start.
+  std::optional<Failure> search_and_move(double residual_norm) {
     factor_ = 1.0;
     trial_q_.noalias() = result_.q + step_;
     trial_load_ = result_.load_factor + load_change_;
@@ -148,7 +147,7 @@ class NewtonIteration {
     record_.assemble_seconds += start.seconds();
     bool tangent_current = trial_evaluation_.ok();
     if (options_.line_search) {
-      if (std::optional<Failure> failure = line_search(tangent_current)) {
+      if (std::optional<Failure> failure = line_search(residual_norm, tangent_current)) {
         return failure;
       }
     } else if (!trial_evaluation_.ok()) {
@@ -195,7 +194,7 @@ class NewtonIteration {
     return trial_evaluation_.ok();
   }
 
-  std::optional<Failure> line_search(bool& tangent_current) {
+  std::optional<Failure> line_search(double residual_norm, bool& tangent_current) {
     // The energy's slope along the step; for load-controlled steps only (a
     // load-factor change does no work that this slope would see).
     const double slope_at_start = step_.dot(residual_);
@@ -209,7 +208,7 @@ class NewtonIteration {
                     return evaluate_trial(trial_factor) ? std::optional(step_.dot(trial_residual_)) : std::nullopt;
                   },
                   options_)
-            : detail::search_residual_norm(residual_.norm(),
+            : detail::search_residual_norm(residual_norm,
                                            residual_norm_or_infinity(trial_evaluation_, trial_residual_),
                                            [&](double trial_factor) {
                                              evaluate_trial(trial_factor);
@@ -328,7 +327,7 @@ NewtonResult solve_newton(NonlinearSystem& system, LinearSolver& linear_solver, 
     if (std::optional<Failure> failure = newton.linearised_step()) {
       return stop(*failure, true);
     }
-    if (std::optional<Failure> failure = newton.search_and_move()) {
+    if (std::optional<Failure> failure = newton.search_and_move(monitor.residual_norm())) {
       return stop(*failure, true);
     }
     result.iterations.push_back(record);

@@ -47,7 +47,8 @@ bool PathPlanner::linearised_change(const PathState& state, double load_step, bo
 // settle that set (a semi-smooth Newton iteration on the linearised
 // equations). The result is kept only where it is the better start (a
 // released node can make the linearised step overshoot).
-bool PathPlanner::settle_touching_set(const PathState& state, double load_step, Eigen::VectorXd& change) {
+bool PathPlanner::settle_touching_set(const PathState& state, double load_step, Eigen::VectorXd& change,
+                                      std::optional<double>& chosen_norm) {
   constexpr int touch_rounds = 4;
   const PathPoint& current = state.current;
   const double target_load = current.load_factor + load_step;
@@ -63,9 +64,13 @@ bool PathPlanner::settle_touching_set(const PathState& state, double load_step, 
     }
   }
   system_.release_touch();
-  if (touch_changed &&
-      residual_norm_at(current.q + straight_change, target_load) < residual_norm_at(current.q + change, target_load)) {
-    change = straight_change;
+  if (touch_changed) {
+    const double straight_norm = residual_norm_at(current.q + straight_change, target_load);
+    const double settled_norm = residual_norm_at(current.q + change, target_load);
+    if (straight_norm < settled_norm) {
+      change = straight_change;
+    }
+    chosen_norm = std::min(straight_norm, settled_norm);
   }
   return true;
 }
@@ -77,7 +82,7 @@ bool PathPlanner::settle_touching_set(const PathState& state, double load_step, 
 // only up to twice the span it was fitted over (a geometric ramp's
 // threefold step extrapolates the bend too far).
 void PathPlanner::prefer_curved(const PathState& state, double load_step, const Eigen::VectorXd& change,
-                                Eigen::VectorXd& q) {
+                                std::optional<double> known_norm, Eigen::VectorXd& q) {
   constexpr double longest_extrapolation = 2.0;
   const PathPoint& current = state.current;
   const std::optional<PathPoint>& previous = state.previous;
@@ -86,7 +91,7 @@ void PathPlanner::prefer_curved(const PathState& state, double load_step, const 
   if (previous && ratio > 0.0 && ratio <= longest_extrapolation) {
     Eigen::VectorXd curved = q + (ratio * ratio) * (previous->q - current.q + change / ratio);
     const double target_load = current.load_factor + load_step;
-    if (residual_norm_at(curved, target_load) < residual_norm_at(q, target_load)) {
+    if (residual_norm_at(curved, target_load) < (known_norm ? *known_norm : residual_norm_at(q, target_load))) {
       q.swap(curved);
     }
   }
@@ -96,12 +101,13 @@ void PathPlanner::prefer_curved(const PathState& state, double load_step, const 
 // formed (the plan then starts from the last converged state).
 bool PathPlanner::tangent_predictor(const PathState& state, double load_step, Eigen::VectorXd& q) {
   Eigen::VectorXd change;
+  std::optional<double> norm_at_q;  // |R| at the predictor, where already evaluated
   if (!linearised_change(state, load_step, !factor_at_current_, change) ||
-      !settle_touching_set(state, load_step, change)) {
+      !settle_touching_set(state, load_step, change, norm_at_q)) {
     return false;
   }
   q = state.current.q + change;
-  prefer_curved(state, load_step, change, q);
+  prefer_curved(state, load_step, change, norm_at_q, q);
   return true;
 }
 

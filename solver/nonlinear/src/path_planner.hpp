@@ -50,8 +50,11 @@ class PathPlanner {
  private:
   bool tangent_predictor(const PathState& state, double load_step, Eigen::VectorXd& q);
   bool linearised_change(const PathState& state, double load_step, bool factorize, Eigen::VectorXd& change);
-  bool settle_touching_set(const PathState& state, double load_step, Eigen::VectorXd& change);
-  void prefer_curved(const PathState& state, double load_step, const Eigen::VectorXd& change, Eigen::VectorXd& q);
+  // chosen_norm: |R| at the change kept, when the settling evaluated it.
+  bool settle_touching_set(const PathState& state, double load_step, Eigen::VectorXd& change,
+                           std::optional<double>& chosen_norm);
+  void prefer_curved(const PathState& state, double load_step, const Eigen::VectorXd& change,
+                     std::optional<double> known_norm, Eigen::VectorXd& q);
   double residual_norm_at(const Eigen::VectorXd& q, double load_factor);
 
   NonlinearSystem& system_;

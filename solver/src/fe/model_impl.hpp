@@ -67,7 +67,8 @@ class ModelImpl {
   std::vector<SurfaceContactNode> surface_nodes;
   std::vector<SurfaceNodeState> surface_states;           // used by evaluate
   std::vector<SurfaceNodeState> accepted_surface_states;  // as accepted with the last increment
-  // Empty except within Model::load_derivative (see FrictionlessTouch).
+  // Empty except while a touching set is held: within Model::load_derivative,
+  // and between Model::hold_touch_at and release_touch (see FrictionlessTouch).
   std::vector<FrictionlessTouch> held_touch;
   int surface_block_begin = 0;
   int variable_count = 0;
